@@ -1,0 +1,3 @@
+using FoulingWatch.Cli;
+
+return FoulingWatchCommand.Run(args, Console.Out, Console.Error);

@@ -1,0 +1,125 @@
+using FoulingWatch.Core.Quantities;
+
+namespace FoulingWatch.Core.FluidModels;
+
+/// <summary>Single-phase water or steam by IAPWS-IF97: region 1 below the saturation temperature at the stream pressure, region 2 above it.</summary>
+/// <remarks>A stream whose two temperatures lie on opposite sides of saturation changes phase: use <see cref="SteamPhaseChange"/>.</remarks>
+public sealed class IapwsWater : IFluidModel
+{
+    public string Description => "water/steam, IAPWS-IF97 regions 1 and 2";
+    public TemperatureRange Validity { get; } = new(IapwsIf97.MinimumTemperature, IapwsIf97.Region2MaximumTemperature);
+
+    private static bool IsLiquid(double t, double pMPa) =>
+        t <= IapwsIf97.Region1MaximumTemperature &&
+        (pMPa > IapwsIf97.CriticalPressureMPa || t < IapwsIf97.SaturationTemperature(pMPa));
+
+    private IapwsIf97.State StateAt(Temperature temperature, Pressure pressure)
+    {
+        FluidModelGuard.Check(this, temperature);
+        var t = temperature.Kelvin;
+        var p = pressure.Megapascals;
+        return IsLiquid(t, p) ? IapwsIf97.Region1(t, p) : IapwsIf97.Region2(t, p);
+    }
+
+    public double SpecificEnthalpy(Temperature temperature, Pressure pressure) => StateAt(temperature, pressure).SpecificEnthalpy;
+    public double SpecificHeat(Temperature temperature, Pressure pressure) => StateAt(temperature, pressure).SpecificHeat;
+    public double? Density(Temperature temperature, Pressure pressure) => 1.0 / StateAt(temperature, pressure).SpecificVolume;
+
+    public string? WhyNotEvaluable(Temperature from, Temperature to, Pressure pressure)
+    {
+        if (!Validity.Contains(from) || !Validity.Contains(to))
+            return $"{Description}: temperature outside {Validity}";
+        if (pressure.Megapascals > IapwsIf97.MaximumPressureMPa) return $"{Description}: pressure above 100 MPa";
+        if (pressure.Megapascals < IapwsIf97.CriticalPressureMPa &&
+            IsLiquid(from.Kelvin, pressure.Megapascals) != IsLiquid(to.Kelvin, pressure.Megapascals))
+            return $"{Description}: the stream crosses saturation at {IapwsIf97.SaturationTemperature(pressure.Megapascals) - 273.15:0.#} °C; use the condensing or evaporating steam model";
+        return null;
+    }
+
+    double IFluidModel.EnthalpyChange(Temperature from, Temperature to, Pressure pressure)
+    {
+        var why = WhyNotEvaluable(from, to, pressure);
+        if (why is not null) throw new PropertyRangeException(Description, "temperature", to.Kelvin, "K", why);
+        return SpecificEnthalpy(to, pressure) - SpecificEnthalpy(from, pressure);
+    }
+}
+
+/// <summary>Whether the steam side gives up latent heat (condensing) or takes it (evaporating).</summary>
+public enum PhaseChangeDirection { Condensing, Evaporating }
+
+/// <summary>
+/// Steam condensing (or water evaporating) at a stated pressure, by IAPWS-IF97: the enthalpy change runs from the
+/// inlet state to the outlet state, each read as superheated/subcooled when its temperature lies beyond a band
+/// around saturation and as saturated vapour/liquid inside the band.
+/// </summary>
+/// <remarks>
+/// The band (default 0.5 K, common practice for instrument error) keeps a saturated stream read a few tenths off
+/// T_s from being taken as single-phase. Duty: Q = ṁ·(h_in − h_out) for a condensing side. Capacity rate infinite
+/// (the side is isothermal at T_s), so Cr = 0 in ε-NTU.
+/// </remarks>
+public sealed class SteamPhaseChange : IFluidModel
+{
+    public SteamPhaseChange(Pressure saturationPressure, PhaseChangeDirection direction, double saturationBandKelvin = 0.5)
+    {
+        Pressure = saturationPressure;
+        Direction = direction;
+        SaturationBand = saturationBandKelvin;
+        SaturationTemperature = Temperature.FromKelvin(IapwsIf97.SaturationTemperature(saturationPressure.Megapascals));
+        if (SaturationTemperature.Kelvin > IapwsIf97.Region1MaximumTemperature)
+            throw new PropertyRangeException("IAPWS-IF97 region 4", "saturation temperature", SaturationTemperature.Kelvin, "K", "up to 623.15 K (16.5 MPa)");
+        Description = FormattableString.Invariant(
+            $"{(direction == PhaseChangeDirection.Condensing ? "condensing steam" : "evaporating water")} at {saturationPressure.Pascals / 1e5:0.###} bar(a), T_s {SaturationTemperature.Celsius:0.##} °C (IAPWS-IF97)");
+    }
+
+    public Pressure Pressure { get; }
+    public PhaseChangeDirection Direction { get; }
+    public double SaturationBand { get; }
+    public Temperature SaturationTemperature { get; }
+    public string Description { get; }
+    public bool IsPhaseChange => true;
+    public TemperatureRange Validity { get; } = new(IapwsIf97.MinimumTemperature, IapwsIf97.Region2MaximumTemperature);
+
+    /// <summary>Latent heat h'' − h' in J/kg at the stated pressure.</summary>
+    public double LatentHeat => IapwsIf97.LatentHeat(Pressure.Megapascals);
+
+    private double VapourEnthalpy(Temperature t) =>
+        t.Kelvin > SaturationTemperature.Kelvin + SaturationBand
+            ? IapwsIf97.Region2(t.Kelvin, Pressure.Megapascals).SpecificEnthalpy
+            : IapwsIf97.Region2Unchecked(SaturationTemperature.Kelvin, Pressure.Megapascals).SpecificEnthalpy;
+
+    private double LiquidEnthalpy(Temperature t) =>
+        t.Kelvin < SaturationTemperature.Kelvin - SaturationBand
+            ? IapwsIf97.Region1(t.Kelvin, Pressure.Megapascals).SpecificEnthalpy
+            : IapwsIf97.Region1Unchecked(SaturationTemperature.Kelvin, Pressure.Megapascals).SpecificEnthalpy;
+
+    public string? WhyNotEvaluable(Temperature from, Temperature to, Pressure pressure)
+    {
+        var ts = SaturationTemperature.Kelvin;
+        var (vapour, liquid) = Direction == PhaseChangeDirection.Condensing ? (from, to) : (to, from);
+        if (vapour.Kelvin < ts - SaturationBand)
+            return FormattableString.Invariant($"{Description}: vapour-side temperature {vapour.Celsius:0.##} °C is below saturation; no phase change is possible");
+        if (liquid.Kelvin > ts + SaturationBand)
+            return FormattableString.Invariant($"{Description}: liquid-side temperature {liquid.Celsius:0.##} °C is above saturation");
+        if (!Validity.Contains(from) || !Validity.Contains(to)) return $"{Description}: temperature outside {Validity}";
+        return null;
+    }
+
+    /// <summary>h(to) − h(from) in J/kg across the phase change; negative when condensing.</summary>
+    public double EnthalpyChange(Temperature from, Temperature to, Pressure pressure)
+    {
+        var why = WhyNotEvaluable(from, to, pressure);
+        if (why is not null) throw new PropertyRangeException(Description, "temperature", from.Kelvin, "K", why);
+        return Direction == PhaseChangeDirection.Condensing
+            ? LiquidEnthalpy(to) - VapourEnthalpy(from)
+            : VapourEnthalpy(to) - LiquidEnthalpy(from);
+    }
+
+    /// <summary>Specific enthalpy of the single-phase state at a temperature off saturation; at saturation the phase is ambiguous.</summary>
+    public double SpecificEnthalpy(Temperature temperature, Pressure pressure) =>
+        temperature.Kelvin > SaturationTemperature.Kelvin ? VapourEnthalpy(temperature) : LiquidEnthalpy(temperature);
+
+    /// <summary>Infinite: the side changes phase at constant temperature.</summary>
+    public double SpecificHeat(Temperature temperature, Pressure pressure) => double.PositiveInfinity;
+
+    double IFluidModel.MeanSpecificHeat(Temperature from, Temperature to, Pressure pressure) => double.PositiveInfinity;
+}
