@@ -1,0 +1,160 @@
+using FoulingWatch.Core.Exchangers;
+using FoulingWatch.Core.FluidModels;
+using FoulingWatch.Core.Units;
+
+namespace FoulingWatch.Ingest.Configuration;
+
+/// <summary>A validated plant configuration, SI inside. Made only by <see cref="PlantConfigurationReader"/>.</summary>
+public sealed record PlantConfiguration(
+    string File,
+    SiteSettings Site,
+    DataSettings Data,
+    EconomicsSettings Economics,
+    IReadOnlyList<ShutdownWindow> ShutdownWindows,
+    IReadOnlyList<ExchangerConfiguration> Exchangers);
+
+/// <summary>Site name, its time zone (for historian local times) and the atmosphere used for gauge pressures in Pa.</summary>
+public sealed record SiteSettings(string Name, TimeZoneInfo TimeZone, double AtmospherePascals);
+
+/// <summary>Where the historian exports are and how they are aligned: grid interval, longest gap bridged, analysis window [start, end).</summary>
+public sealed record DataSettings(
+    IReadOnlyList<HistorianSource> Sources,
+    TimeSpan Interval,
+    TimeSpan MaxGap,
+    DateTimeOffset? WindowStart,
+    DateTimeOffset? WindowEnd);
+
+public enum HistorianLayout { Wide, Long }
+
+/// <summary>How the timestamp column is read. Format null: ISO 8601 and common variants, detected; "serial": spreadsheet serial days.</summary>
+public sealed record TimestampSettings(string? Column, string? Format, bool AssumeUtc);
+
+/// <summary>One historian export source: a set of files of one layout and dialect, merged in time.</summary>
+public sealed record HistorianSource(
+    string Id,
+    string Path,
+    IReadOnlyList<string> Files,
+    HistorianLayout Layout,
+    char? Delimiter,
+    char? DecimalSeparator,
+    string? Encoding,
+    int? HeaderLine,
+    int? MetadataRows,
+    TimestampSettings Timestamp,
+    IReadOnlyList<string> Markers,
+    string TagColumn,
+    string ValueColumn,
+    string? QualityColumn,
+    IReadOnlyList<string> GoodQuality);
+
+/// <summary>A historian tag as a measurement: its unit resolved to SI once, accuracy and plausible range in SI.</summary>
+/// <param name="Path">The configuration path of this tag, for messages.</param>
+/// <param name="Density">kg/m³, for a volumetric flow tag converted to mass flow; else null.</param>
+/// <param name="AccuracyAbsolute">One-sigma accuracy in SI (K or kg/s), or null.</param>
+/// <param name="AccuracyRelative">One-sigma accuracy as a fraction of reading, or null.</param>
+public sealed record TagReference(
+    string Tag,
+    string? Source,
+    LinearUnit Unit,
+    double? Density,
+    double? AccuracyAbsolute,
+    double? AccuracyRelative,
+    double RangeMinimum,
+    double RangeMaximum,
+    string Path)
+{
+    /// <summary>SI value of a reading in the tag's unit (mass flow for a volumetric tag with its density).</summary>
+    public double ToSi(double reading) => Density is { } rho ? Unit.ToSi(reading) * rho : Unit.ToSi(reading);
+
+    /// <summary>One-sigma uncertainty in SI of an SI value.</summary>
+    public double Sigma(double si) => Math.Sqrt(Math.Pow(AccuracyAbsolute ?? 0, 2) + Math.Pow((AccuracyRelative ?? 0) * si, 2));
+}
+
+/// <summary>Which side of a shell-and-tube the stream is on; plates and double-pipes use tube/shell for "channel 1/2".</summary>
+public enum ExchangerSide { Tube, Shell }
+
+/// <summary>A stream through the exchanger: fluid model, pressure (Pa, absolute) and tags.</summary>
+public sealed record StreamConfiguration(
+    StreamSide Stream,
+    ExchangerSide Side,
+    IFluidModel Fluid,
+    TagReference Flow,
+    TagReference Inlet,
+    TagReference Outlet,
+    double PressurePascals,
+    TagReference? PressureTag,
+    double? DesignFlow);
+
+public enum DutyBasis { Hot, Cold, Mean, Reconciled }
+
+/// <summary>How the clean U at today's conditions is obtained.</summary>
+public abstract record CleanReference(double TubeExponent, double ShellExponent);
+
+/// <summary>Clean U from the datasheet at design flows, each side's film scaled as h ∝ ṁⁿ.</summary>
+/// <param name="CleanU">Clean U at design flows, W/(m²·K), referred to the exchanger area.</param>
+/// <param name="TubeShare">Fraction of the clean film resistance (1/U − wall) on the tube side, 0–1.</param>
+/// <param name="WallResistance">Wall resistance referred to the area, m²·K/W.</param>
+public sealed record DatasheetCleanReference(
+    double CleanU, double DesignTubeFlow, double DesignShellFlow, double TubeShare, double WallResistance,
+    double TubeExponent, double ShellExponent) : CleanReference(TubeExponent, ShellExponent);
+
+/// <summary>Clean U fitted (Wilson plot) from the first days of operation after a cleaning.</summary>
+/// <param name="Start">Start of the calibration period; null: the last logged cleaning, else the first data.</param>
+public sealed record BaselineCleanReference(TimeSpan Duration, DateTimeOffset? Start, double TubeExponent, double ShellExponent)
+    : CleanReference(TubeExponent, ShellExponent);
+
+/// <summary>Limits that define "must clean": fouling resistance (m²·K/W), minimum duty (W), minimum cold outlet (K).</summary>
+public sealed record ExchangerLimits(double? FoulingResistance, double? MinimumDuty, double? MinimumColdOutlet, double? MaximumHotOutlet);
+
+/// <summary>A past maintenance event. Cleanings start a new fouling cycle.</summary>
+public sealed record MaintenanceEvent(DateTimeOffset Date, string Action, string? Note)
+{
+    public bool IsCleaning => Action.Equals("cleaned", StringComparison.OrdinalIgnoreCase);
+}
+
+/// <summary>Cost of one cleaning (in the site currency) and its downtime.</summary>
+public sealed record CleaningSettings(double? Cost, TimeSpan? Downtime, double? DowntimeCostPerDay);
+
+public sealed record ExchangerConfiguration(
+    string Id,
+    string Service,
+    string Path,
+    FlowArrangement Arrangement,
+    double Area,
+    StreamConfiguration Hot,
+    StreamConfiguration Cold,
+    DutyBasis DutyBasis,
+    double BalanceTolerance,
+    double DowntimeFlowFraction,
+    CleanReference Clean,
+    ExchangerLimits Limits,
+    CleaningSettings Cleaning,
+    IReadOnlyList<MaintenanceEvent> Maintenance,
+    EconomicsSettings? Economics)
+{
+    public StreamConfiguration Tube => Hot.Side == ExchangerSide.Tube ? Hot : Cold;
+    public StreamConfiguration Shell => Hot.Side == ExchangerSide.Shell ? Hot : Cold;
+    public IEnumerable<TagReference> Tags()
+    {
+        foreach (var s in new[] { Hot, Cold })
+        {
+            yield return s.Flow;
+            yield return s.Inlet;
+            yield return s.Outlet;
+            if (s.PressureTag is not null) yield return s.PressureTag;
+        }
+    }
+}
+
+/// <summary>Site economics, SI energy inside: prices per J, CO2 in kg per J of fuel.</summary>
+public sealed record EconomicsSettings(
+    string Currency,
+    string? Fuel,
+    double? FuelPricePerJoule,
+    double? HeaterEfficiency,
+    double? Co2KilogramsPerJoule,
+    double? Co2PricePerKilogram,
+    double? LostCoolingCostPerJoule);
+
+/// <summary>A planned shutdown window [Start, End) that can take up to Capacity cleanings.</summary>
+public sealed record ShutdownWindow(string Name, DateTimeOffset Start, DateTimeOffset End, int Capacity);

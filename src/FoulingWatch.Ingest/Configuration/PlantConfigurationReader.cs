@@ -1,0 +1,620 @@
+using System.Globalization;
+using System.Text.Json;
+using FoulingWatch.Core.Economics;
+using FoulingWatch.Core.Exchangers;
+using FoulingWatch.Core.FluidModels;
+using FoulingWatch.Core.Quantities;
+using FoulingWatch.Core.Units;
+
+namespace FoulingWatch.Ingest.Configuration;
+
+/// <summary>Reads and validates a plant configuration file (JSON; comments and trailing commas allowed).</summary>
+/// <remarks>All problems are collected and reported together in one <see cref="ConfigurationException"/>, each with its JSON path.</remarks>
+public static class PlantConfigurationReader
+{
+    public static readonly IReadOnlyList<string> DefaultMarkers =
+        ["Bad", "Bad Input", "No Data", "I/O Timeout", "Shutdown", "Calc Failed", "Comm Fail", "Scan Off", "Pt Created", "Over Range", "Under Range", "NaN", "#N/A", "null", "-"];
+
+    private static readonly JsonDocumentOptions JsonOptions = new()
+    {
+        CommentHandling = JsonCommentHandling.Skip,
+        AllowTrailingCommas = true,
+    };
+
+    public static PlantConfiguration Load(string file)
+    {
+        if (!System.IO.File.Exists(file))
+            throw new ConfigurationException(file, [new ConfigurationError("(file)", $"'{file}' does not exist; give the path of the plant configuration JSON.")]);
+        return Parse(System.IO.File.ReadAllText(file), file);
+    }
+
+    public static PlantConfiguration Parse(string json, string file)
+    {
+        JsonDocument doc;
+        try { doc = JsonDocument.Parse(json, JsonOptions); }
+        catch (JsonException ex)
+        {
+            throw new ConfigurationException(file, [new ConfigurationError(
+                $"line {(ex.LineNumber ?? 0) + 1}, column {(ex.BytePositionInLine ?? 0) + 1}",
+                $"not valid JSON: {ex.Message.Split(" LineNumber")[0].TrimEnd('.', ' ')}. Check commas, quotes and brackets there.")]);
+        }
+        using (doc)
+        {
+            var errors = new List<ConfigurationError>();
+            var root = new JsonNode(doc.RootElement, "", errors);
+            if (doc.RootElement.ValueKind != JsonValueKind.Object)
+                throw new ConfigurationException(file, [new ConfigurationError("(top level)", "must be a JSON object { … }.")]);
+            var baseDir = System.IO.Path.GetDirectoryName(System.IO.Path.GetFullPath(file)) ?? ".";
+
+            var site = ReadSite(root.Object("site", required: true));
+            var economics = ReadEconomics(root.Object("economics"), null) ?? new EconomicsSettings("EUR", null, null, null, null, null, null);
+            var data = ReadData(root.Object("data", required: true), baseDir, site);
+            var windows = root.Array("shutdownWindows").Select(w => ReadWindow(root, w.Element, w.Path, site)).OfType<ShutdownWindow>().ToList();
+            var exchangers = new List<ExchangerConfiguration>();
+            var ids = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+            foreach (var (e, path) in root.Array("exchangers", required: true))
+            {
+                var node = root.AsObject(e, path);
+                if (node is null) continue;
+                var x = ReadExchanger(node, site, economics);
+                if (x is null) continue;
+                if (!ids.Add(x.Id)) node.Error("id", $"'{x.Id}' is used by another exchanger; ids must be unique.");
+                else exchangers.Add(x);
+            }
+            if (exchangers.Count == 0 && !errors.Any(er => er.Path.StartsWith("exchangers", StringComparison.Ordinal)))
+                root.Error("exchangers", "is empty; describe at least one exchanger.");
+            root.Done();
+            if (errors.Count > 0) throw new ConfigurationException(file, errors);
+            return new PlantConfiguration(System.IO.Path.GetFullPath(file), site!, data!, economics, windows, exchangers);
+        }
+    }
+
+    private static SiteSettings? ReadSite(JsonNode? n)
+    {
+        if (n is null) return null;
+        var name = n.String("name", required: true) ?? "";
+        var zoneId = n.String("timeZone") ?? "UTC";
+        TimeZoneInfo zone = TimeZoneInfo.Utc;
+        try { zone = TimeZoneInfo.FindSystemTimeZoneById(zoneId); }
+        catch (TimeZoneNotFoundException) { n.Error("timeZone", $"'{zoneId}' is not a known IANA time zone; use a name like \"Europe/Amsterdam\" or \"UTC\"."); }
+        catch (InvalidTimeZoneException) { n.Error("timeZone", $"'{zoneId}' could not be loaded from the time-zone database."); }
+        var atm = n.Has("atmosphere") ? n.Quantity("atmosphere", Dimension.Pressure, minSi: 50_000, maxSi: 110_000) : null;
+        n.Done();
+        return new SiteSettings(name, zone, atm ?? 101_325.0);
+    }
+
+    private static DataSettings? ReadData(JsonNode? n, string baseDir, SiteSettings? site)
+    {
+        if (n is null) return null;
+        var interval = n.Quantity("interval", Dimension.Duration, minSi: 1, maxSi: 86400 * 7) ?? 600;
+        var maxGap = n.Quantity("maxGap", Dimension.Duration, minSi: 0) ?? Math.Max(3 * interval, 1800);
+        var sources = new List<HistorianSource>();
+        foreach (var (e, path) in n.Array("sources", required: true))
+        {
+            var s = n.AsObject(e, path);
+            if (s is null) continue;
+            var src = ReadSource(s, baseDir);
+            if (src is not null) sources.Add(src);
+        }
+        DateTimeOffset? start = null, end = null;
+        var w = n.Object("window");
+        if (w is not null)
+        {
+            start = ReadDate(w, "start", site);
+            end = ReadDate(w, "end", site);
+            if (start is not null && end is not null && end <= start) w.Error("end", "must be after window.start.");
+            w.Done();
+        }
+        n.Done();
+        return new DataSettings(sources, TimeSpan.FromSeconds(interval), TimeSpan.FromSeconds(maxGap), start, end);
+    }
+
+    private static HistorianSource? ReadSource(JsonNode s, string baseDir)
+    {
+        var id = s.String("id") ?? "historian";
+        var patterns = s.Array("files", required: true);
+        var files = new List<string>();
+        foreach (var (e, path) in patterns)
+        {
+            if (e.ValueKind != JsonValueKind.String) { s.ErrorAt(path, "must be a file path or pattern in quotes, e.g. \"data/export-*.csv\"."); continue; }
+            var pattern = e.GetString()!;
+            var full = System.IO.Path.IsPathRooted(pattern) ? pattern : System.IO.Path.Combine(baseDir, pattern);
+            var dir = System.IO.Path.GetDirectoryName(full)!;
+            var namePattern = System.IO.Path.GetFileName(full);
+            var found = Directory.Exists(dir) ? Directory.GetFiles(dir, namePattern).Order(StringComparer.Ordinal).ToList() : [];
+            if (found.Count == 0) s.ErrorAt(path, $"'{pattern}' matches no file (looked in {dir}); check the path, which is relative to the configuration file.");
+            files.AddRange(found);
+        }
+        var layoutText = s.String("layout") ?? "wide";
+        var layout = layoutText.ToLowerInvariant() switch
+        {
+            "wide" => HistorianLayout.Wide,
+            "long" => HistorianLayout.Long,
+            _ => (HistorianLayout?)null,
+        };
+        if (layout is null) s.Error("layout", $"'{layoutText}' is not a layout; use \"wide\" (a column per tag) or \"long\" (tag, timestamp, value rows).");
+        var delimiter = ReadChar(s, "delimiter", [',', ';', '\t', '|'], "\",\", \";\", \"\\t\" or \"|\"");
+        var decimalSep = ReadChar(s, "decimal", ['.', ','], "\".\" or \",\"");
+        var encoding = s.String("encoding");
+        if (encoding is not null && !new[] { "utf-8", "windows-1252", "auto" }.Contains(encoding.ToLowerInvariant()))
+            s.Error("encoding", $"'{encoding}' is not supported; use \"utf-8\", \"windows-1252\" or \"auto\".");
+        var headerLine = s.Integer("headerLine", min: 1);
+        var metadataRows = s.Integer("metadataRows", min: 0, max: 20);
+        var ts = s.Object("timestamp");
+        var timestamp = new TimestampSettings(ts?.String("column"), ts?.String("format"), ts?.Boolean("utc") ?? false);
+        if (timestamp.Format is { } f && f != "serial" && f != "iso")
+        {
+            try { _ = DateTime.Now.ToString(f, CultureInfo.InvariantCulture); }
+            catch (FormatException) { ts!.Error("format", $"'{f}' is not a valid date format string; use e.g. \"dd.MM.yyyy HH:mm:ss\", \"iso\" or \"serial\"."); }
+        }
+        ts?.Done();
+        var markers = s.Has("markers")
+            ? s.Array("markers").Where(m => m.Element.ValueKind == JsonValueKind.String).Select(m => m.Element.GetString()!).ToList()
+            : DefaultMarkers.ToList();
+        var tagColumn = s.String("tagColumn") ?? "Tag";
+        var valueColumn = s.String("valueColumn") ?? "Value";
+        var qualityColumn = s.String("qualityColumn");
+        var good = s.Has("goodQuality")
+            ? s.Array("goodQuality").Select(g => g.Element.ValueKind == JsonValueKind.Number ? g.Element.GetRawText() : g.Element.GetString() ?? "").ToList()
+            : new List<string> { "Good", "G", "192", "0", "OK" };
+        s.Done();
+        return layout is null ? null : new HistorianSource(id, s.Path, files, layout.Value, delimiter, decimalSep, encoding?.ToLowerInvariant() is "auto" ? null : encoding,
+            headerLine, metadataRows, timestamp, markers, tagColumn, valueColumn, qualityColumn, good);
+    }
+
+    private static char? ReadChar(JsonNode n, string key, char[] allowed, string words)
+    {
+        var text = n.String(key);
+        if (text is null || text.Equals("auto", StringComparison.OrdinalIgnoreCase)) return null;
+        var t = text == "\\t" || text.Equals("tab", StringComparison.OrdinalIgnoreCase) ? "\t" : text;
+        if (t.Length == 1 && allowed.Contains(t[0])) return t[0];
+        n.Error(key, $"'{text}' is not supported; use {words} or \"auto\".");
+        return null;
+    }
+
+    private static DateTimeOffset? ReadDate(JsonNode n, string key, SiteSettings? site, bool required = false)
+    {
+        var text = n.String(key, required);
+        if (text is null) return null;
+        if (DateTimeOffset.TryParse(text, CultureInfo.InvariantCulture, DateTimeStyles.AssumeUniversal, out var dto) &&
+            (text.Contains('+') || text.EndsWith('Z') || text.Count(c => c == '-') > 2))
+            return dto.ToUniversalTime();
+        if (DateTime.TryParse(text, CultureInfo.InvariantCulture, DateTimeStyles.None, out var local))
+        {
+            var zone = site?.TimeZone ?? TimeZoneInfo.Utc;
+            var unspecified = DateTime.SpecifyKind(local, DateTimeKind.Unspecified);
+            if (zone.IsInvalidTime(unspecified)) { n.Error(key, $"'{text}' does not exist in {zone.Id} (daylight-saving gap)."); return null; }
+            return new DateTimeOffset(unspecified, zone.GetUtcOffset(unspecified)).ToUniversalTime();
+        }
+        n.Error(key, $"'{text}' is not a date; use ISO 8601, e.g. \"2026-03-14\" or \"2026-03-14T06:00:00Z\" (local site time when no offset).");
+        return null;
+    }
+
+    private static ShutdownWindow? ReadWindow(JsonNode root, JsonElement e, string path, SiteSettings? site)
+    {
+        var n = root.AsObject(e, path);
+        if (n is null) return null;
+        var name = n.String("name") ?? path;
+        var start = ReadDate(n, "start", site, required: true);
+        var end = ReadDate(n, "end", site, required: true);
+        var capacity = n.Integer("capacity", min: 0) ?? 1;
+        if (start is not null && end is not null && end <= start) n.Error("end", "must be after start.");
+        n.Done();
+        return start is null || end is null ? null : new ShutdownWindow(name, start.Value, end.Value, capacity);
+    }
+
+    private static EconomicsSettings? ReadEconomics(JsonNode? n, EconomicsSettings? inherited)
+    {
+        if (n is null) return null;
+        var currency = n.String("currency") ?? inherited?.Currency ?? "EUR";
+        var fuel = n.String("fuel") ?? inherited?.Fuel;
+        FuelFactors.Fuel? fuelData = null;
+        if (fuel is not null)
+        {
+            fuelData = FuelFactors.Find(fuel);
+            if (fuelData is null) n.Error("fuel", $"'{fuel}' is not a known fuel; use {string.Join(" or ", FuelFactors.All.Select(f => $"\"{f.Key}\""))}, or give co2Factor.");
+        }
+        var fuelPrice = MoneyPer(n, "fuelPrice", currency, Dimension.Energy) ?? inherited?.FuelPricePerJoule;
+        var efficiency = n.Fraction("heaterEfficiency", min: 0.3, max: 1.0) ?? inherited?.HeaterEfficiency;
+        double? co2 = inherited?.Co2KilogramsPerJoule;
+        if (n.Has("co2Factor")) co2 = Co2Factor(n, "co2Factor");
+        else if (fuelData is not null) co2 = fuelData.Co2KilogramsPerJoule;
+        var co2Price = MoneyPerMass(n, "co2Price", currency) ?? inherited?.Co2PricePerKilogram;
+        var lostCooling = MoneyPer(n, "lostCoolingCost", currency, Dimension.Energy) ?? inherited?.LostCoolingCostPerJoule;
+        n.Done();
+        return new EconomicsSettings(currency, fuelData?.Key ?? fuel, fuelPrice, efficiency, co2, co2Price, lostCooling);
+    }
+
+    /// <summary>Reads "8.5 EUR/GJ" as money per SI unit of the dimension.</summary>
+    private static double? MoneyPer(JsonNode n, string key, string currency, Dimension per)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, $"\"8.5 {currency}/GJ\"");
+        if (unit is null) return null;
+        var slash = unit.IndexOf('/');
+        if (slash < 0) { n.Error(key, $"'{text}' needs a unit after the currency, e.g. \"8.5 {currency}/GJ\"."); return null; }
+        var cur = unit[..slash].Trim();
+        if (!cur.Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' is in {cur}, but the site currency is {currency}; convert it or change economics.currency."); return null; }
+        if (!UnitCatalog.TryResolve(unit[(slash + 1)..], per, out var u)) { n.Error(key, $"'{unit[(slash + 1)..]}' is not a {UnknownUnitException.Describe(per)} unit; use {string.Join(", ", UnitCatalog.Accepted(per))}."); return null; }
+        return amount / u.Scale;
+    }
+
+    private static double? MoneyPerMass(JsonNode n, string key, string currency)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, $"\"80 {currency}/t\"");
+        if (unit is null) return null;
+        var parts = unit.Split('/');
+        if (parts.Length != 2 || !parts[0].Trim().Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' must be in {currency} per mass, e.g. \"80 {currency}/t\"."); return null; }
+        double? kg = parts[1].Trim().ToLowerInvariant() switch { "t" or "tonne" or "tco2" => 1000, "kg" or "kgco2" => 1, _ => null };
+        if (kg is null) { n.Error(key, $"'{parts[1]}' is not a mass unit here; use t or kg."); return null; }
+        return amount / kg;
+    }
+
+    private static double? Co2Factor(JsonNode n, string key)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, "\"56100 kg/TJ\"");
+        if (unit is null) return null;
+        var parts = unit.Split('/');
+        double? mass = parts.Length == 2 ? parts[0].Trim().ToLowerInvariant() switch { "kg" => 1, "t" => 1000, "g" => 0.001, _ => null } : null;
+        if (mass is null || !UnitCatalog.TryResolve(parts[1], Dimension.Energy, out var e)) { n.Error(key, $"'{text}' must be a mass of CO2 per fuel energy, e.g. \"56100 kg/TJ\"."); return null; }
+        return amount * mass / e.Scale;
+    }
+
+    private static (double Amount, string? Unit) SplitMoney(JsonNode n, string key, string text, string example)
+    {
+        var t = text.Trim();
+        var i = 0;
+        while (i < t.Length && (char.IsDigit(t[i]) || t[i] is '.' or '-' or '+' or 'e' or 'E')) i++;
+        if (i == 0 || !double.TryParse(t[..i], NumberStyles.Float, CultureInfo.InvariantCulture, out var amount))
+        {
+            n.Error(key, $"'{text}' is not an amount with its unit; write it like {example}.");
+            return (0, null);
+        }
+        var unit = t[i..].Trim();
+        if (unit.Length == 0) { n.Error(key, $"'{text}' has no currency or unit; write it like {example}."); return (0, null); }
+        return (amount, unit);
+    }
+
+    private static double? Money(JsonNode n, string key, string currency)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, $"\"45000 {currency}\"");
+        if (unit is null) return null;
+        if (!unit.Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' is in {unit}, but the site currency is {currency}."); return null; }
+        if (amount < 0) { n.Error(key, $"'{text}' is negative; a cost is 0 or more."); return null; }
+        return amount;
+    }
+
+    private static readonly string[] ArrangementNames =
+        ["counterflow", "parallel", "plate", "shell-and-tube", "crossflow-unmixed", "crossflow-hot-mixed", "crossflow-cold-mixed"];
+
+    private static FlowArrangement? ReadArrangement(JsonNode n)
+    {
+        if (!n.Has("arrangement")) { n.Error("arrangement", "is missing; use one of " + string.Join(", ", ArrangementNames.Select(a => $"\"{a}\"")) + "."); return null; }
+        var e = n.Element.GetProperty("arrangement");
+        string? type;
+        int shells = 1, passes = 2;
+        if (e.ValueKind == JsonValueKind.String) type = e.GetString();
+        else
+        {
+            var o = n.Object("arrangement");
+            if (o is null) return null;
+            type = o.String("type", required: true);
+            shells = o.Integer("shells", min: 1, max: 8) ?? 1;
+            passes = o.Integer("tubePasses", min: 2, max: 16) ?? 2;
+            if (passes % 2 != 0) o.Error("tubePasses", $"{passes} is odd; use an even number of tube passes (2, 4, …).");
+            o.Done();
+            if (passes % 2 != 0) return null;
+        }
+        switch (type?.ToLowerInvariant())
+        {
+            case "counterflow": return Counterflow.Instance;
+            case "parallel": return new ParallelFlow();
+            case "plate": return new PlateAsCounterflow();
+            case "shell-and-tube": return shells == 1 ? new OneShellPassEvenTubePasses(passes) : new ShellsInSeries(shells, passes);
+            case "crossflow-unmixed": return new CrossflowBothUnmixed();
+            case "crossflow-hot-mixed": return new CrossflowOneMixed(Core.Exchangers.StreamSide.Hot);
+            case "crossflow-cold-mixed": return new CrossflowOneMixed(Core.Exchangers.StreamSide.Cold);
+            case null: return null;
+            default:
+                var near = Suggest.Closest(type, ArrangementNames);
+                n.Error("arrangement", $"'{type}' is not an arrangement; " + (near is null ? "use one of " + string.Join(", ", ArrangementNames.Select(a => $"\"{a}\"")) : $"did you mean \"{near}\"?"));
+                return null;
+        }
+    }
+
+    private static ExchangerConfiguration? ReadExchanger(JsonNode n, SiteSettings? site, EconomicsSettings economics)
+    {
+        var id = n.String("id", required: true);
+        var service = n.String("service") ?? "";
+        var arrangement = ReadArrangement(n);
+        var area = n.Quantity("area", Dimension.Area, required: true, minSi: 0, exclusiveMin: true);
+        var atm = site?.AtmospherePascals ?? 101_325.0;
+        var hot = ReadStream(n.Object("hot", required: true), Core.Exchangers.StreamSide.Hot, atm);
+        var cold = ReadStream(n.Object("cold", required: true), Core.Exchangers.StreamSide.Cold, atm);
+        if (hot is not null && cold is not null && hot.Side == cold.Side)
+            n.Error("cold.side", $"is \"{cold.Side.ToString().ToLowerInvariant()}\" like the hot stream; one stream is on the tube side and the other on the shell side.");
+        if (hot?.Fluid.IsPhaseChange == true && cold?.Fluid.IsPhaseChange == true)
+            n.ErrorHere("both streams change phase; at most one side may condense or evaporate.");
+        var basisText = n.String("dutyBasis") ?? "mean";
+        DutyBasis? basis = basisText.ToLowerInvariant() switch
+        {
+            "hot" => DutyBasis.Hot, "cold" => DutyBasis.Cold, "mean" => DutyBasis.Mean, "reconciled" => DutyBasis.Reconciled, _ => null,
+        };
+        if (basis is null) n.Error("dutyBasis", $"'{basisText}' is not a duty basis; use \"hot\", \"cold\", \"mean\" or \"reconciled\".");
+        var balance = n.Fraction("balanceTolerance", min: 0.001, max: 1) ?? 0.10;
+        var downtime = n.Fraction("downtimeFlowFraction", min: 0, max: 0.9) ?? 0.2;
+        var clean = ReadClean(n.Object("clean", required: true), site, hot, cold);
+        var limitsNode = n.Object("limits");
+        var limits = new ExchangerLimits(
+            limitsNode?.Quantity("foulingResistance", Dimension.FoulingResistance, minSi: 0, exclusiveMin: true),
+            limitsNode?.Quantity("minimumDuty", Dimension.Power, minSi: 0, exclusiveMin: true),
+            limitsNode?.Quantity("minimumColdOutlet", Dimension.Temperature, minSi: 0),
+            limitsNode?.Quantity("maximumHotOutlet", Dimension.Temperature, minSi: 0));
+        limitsNode?.Done();
+        var exEconomics = ReadEconomics(n.Object("economics"), economics);
+        var currency = (exEconomics ?? economics).Currency;
+        var cleaningNode = n.Object("cleaning");
+        var cleaning = new CleaningSettings(
+            cleaningNode is null ? null : Money(cleaningNode, "cost", currency),
+            cleaningNode?.Quantity("downtime", Dimension.Duration, minSi: 0) is { } dt ? TimeSpan.FromSeconds(dt) : null,
+            cleaningNode is null ? null : MoneyPerDay(cleaningNode, "downtimeCost", currency));
+        cleaningNode?.Done();
+        var maintenance = new List<MaintenanceEvent>();
+        foreach (var (e, path) in n.Array("maintenance"))
+        {
+            var m = n.AsObject(e, path);
+            if (m is null) continue;
+            var date = ReadDate(m, "date", site, required: true);
+            var action = m.String("action") ?? "cleaned";
+            if (!new[] { "cleaned", "inspected", "repaired", "bypassed", "returned" }.Contains(action.ToLowerInvariant()))
+                m.Error("action", $"'{action}' is not an action; use \"cleaned\", \"inspected\", \"repaired\", \"bypassed\" or \"returned\".");
+            var note = m.String("note");
+            m.Done();
+            if (date is not null) maintenance.Add(new MaintenanceEvent(date.Value, action, note));
+        }
+        maintenance.Sort((a, b) => a.Date.CompareTo(b.Date));
+        n.Done();
+        if (id is null || arrangement is null || area is null || hot is null || cold is null || basis is null || clean is null) return null;
+        return new ExchangerConfiguration(id, service, n.Path, arrangement, area.Value, hot, cold, basis.Value, balance, downtime,
+            clean, limits, cleaning, maintenance, exEconomics);
+    }
+
+    private static double? MoneyPerDay(JsonNode n, string key, string currency)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, $"\"20000 {currency}/d\"");
+        if (unit is null) return null;
+        var parts = unit.Split('/');
+        if (parts.Length != 2 || !parts[0].Trim().Equals(currency, StringComparison.OrdinalIgnoreCase) || !UnitCatalog.TryResolve(parts[1], Dimension.Duration, out var d))
+        { n.Error(key, $"'{text}' must be {currency} per time, e.g. \"20000 {currency}/d\"."); return null; }
+        return amount / d.Scale * 86400;
+    }
+
+    private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold)
+    {
+        if (n is null) return null;
+        var method = n.String("method", required: true);
+        var tubeN = n.Number("tubeExponent", min: 0.3, max: 1.0) ?? 0.8;
+        var shellN = n.Number("shellExponent", min: 0.3, max: 1.0) ?? 0.6;
+        CleanReference? result = null;
+        switch (method?.ToLowerInvariant())
+        {
+            case "datasheet":
+                var u = n.Quantity("u", Dimension.HeatTransferCoefficient, required: true, minSi: 0, exclusiveMin: true);
+                var share = n.Fraction("tubeShare", min: 0.05, max: 0.95) ?? 0.5;
+                var wall = n.Quantity("wallResistance", Dimension.FoulingResistance, minSi: 0) ?? 0;
+                var tube = hot?.Side == ExchangerSide.Tube ? hot : cold;
+                var shell = hot?.Side == ExchangerSide.Shell ? hot : cold;
+                if (tube?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the tube-side stream ({(tube == hot ? "hot" : "cold")}.designFlow).");
+                if (shell?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the shell-side stream ({(shell == hot ? "hot" : "cold")}.designFlow).");
+                if (u is not null && wall >= 1 / u.Value) n.Error("wallResistance", "is as large as the whole clean resistance 1/U; check the value.");
+                if (u is not null && tube?.DesignFlow is not null && shell?.DesignFlow is not null && wall < 1 / u.Value)
+                    result = new DatasheetCleanReference(u.Value, tube.DesignFlow.Value, shell.DesignFlow.Value, share, wall, tubeN, shellN);
+                break;
+            case "baseline":
+                var days = n.Quantity("duration", Dimension.Duration, minSi: 3600) ?? 14 * 86400.0;
+                var start = ReadDate(n, "start", site);
+                result = new BaselineCleanReference(TimeSpan.FromSeconds(days), start, tubeN, shellN);
+                break;
+            case null: break;
+            default:
+                n.Error("method", $"'{method}' is not a clean-U method; use \"datasheet\" (clean U at design flows) or \"baseline\" (fitted after a cleaning).");
+                break;
+        }
+        n.Done();
+        return result;
+    }
+
+    private static StreamConfiguration? ReadStream(JsonNode? n, Core.Exchangers.StreamSide stream, double atmosphere)
+    {
+        if (n is null) return null;
+        var sideText = n.String("side", required: true);
+        ExchangerSide? side = sideText?.ToLowerInvariant() switch { "tube" => ExchangerSide.Tube, "shell" => ExchangerSide.Shell, _ => null };
+        if (sideText is not null && side is null) n.Error("side", $"'{sideText}' is not a side; use \"tube\" or \"shell\" (for plates: \"tube\" for one channel, \"shell\" for the other).");
+        var pressure = 0.0;
+        TagReference? pressureTag = null;
+        if (n.Has("pressure"))
+        {
+            var pe = n.Element.GetProperty("pressure");
+            if (pe.ValueKind == JsonValueKind.Object && pe.TryGetProperty("tag", out _))
+                pressureTag = ReadTag(n.Object("pressure")!, Dimension.Pressure, atmosphere, 1, 1e8);
+            else pressure = ReadPressure(n, "pressure", atmosphere) ?? 0;
+        }
+        var fluid = ReadFluid(n.Object("fluid", required: true), atmosphere, ref pressure);
+        if (pressure <= 0) pressure = atmosphere + 5e5; // common practice: liquids run a few bar above atmosphere; only IAPWS water uses it
+        var flow = ReadTag(n.Object("flow", required: true), Dimension.MassFlow, atmosphere, 0, double.MaxValue);
+        var inlet = ReadTag(n.Object("inlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
+        var outlet = ReadTag(n.Object("outlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
+        var design = n.Quantity("designFlow", Dimension.MassFlow, minSi: 0, exclusiveMin: true);
+        n.Done();
+        if (side is null || fluid is null || flow is null || inlet is null || outlet is null) return null;
+        return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design);
+    }
+
+    private static double? ReadPressure(JsonNode n, string key, double atmosphere)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        try
+        {
+            var (value, unit) = UnitCatalog.SplitNumberAndUnit(text, Dimension.Pressure);
+            var si = UnitCatalog.ResolvePressure(unit, atmosphere).ToSi(value);
+            if (si <= 0) { n.Error(key, $"'{text}' is not above absolute zero pressure."); return null; }
+            return si;
+        }
+        catch (FormatException ex) { n.Error(key, ex.Message.Replace("use ", "use barg, psig, kPag, MPag, ")); return null; }
+    }
+
+    private static readonly string[] FluidModels = ["water", "constant-cp", "cp-polynomial", "cp-table", "petroleum", "condensing-steam", "evaporating-water"];
+
+    private static IFluidModel? ReadFluid(JsonNode? n, double atmosphere, ref double pressure)
+    {
+        if (n is null) return null;
+        var model = n.String("model", required: true);
+        IFluidModel? result = null;
+        var range = new TemperatureRange(
+            n.Quantity("minimumTemperature", Dimension.Temperature, minSi: 0) ?? 233.15,
+            n.Quantity("maximumTemperature", Dimension.Temperature, minSi: 0) ?? 773.15);
+        try
+        {
+            switch (model?.ToLowerInvariant())
+            {
+                case "water":
+                    result = new IapwsWater();
+                    break;
+                case "constant-cp":
+                    var cp = n.Quantity("cp", Dimension.SpecificHeat, required: true, minSi: 100, maxSi: 20_000);
+                    if (cp is not null) result = new ConstantSpecificHeat(cp.Value, range, n.String("name") ?? "constant cp");
+                    break;
+                case "cp-polynomial":
+                {
+                    var coeffs = n.Array("coefficients", required: true).Select(c => c.Element.ValueKind == JsonValueKind.Number ? c.Element.GetDouble() : double.NaN).ToList();
+                    if (coeffs.Any(double.IsNaN)) n.Error("coefficients", "must be plain numbers a0, a1, … in the stated cpUnit and temperatureUnit.");
+                    var cpUnitText = n.String("cpUnit") ?? "J/kgK";
+                    var tUnitText = n.String("temperatureUnit") ?? "degC";
+                    if (!UnitCatalog.TryResolve(cpUnitText, Dimension.SpecificHeat, out var cpUnit)) n.Error("cpUnit", new UnknownUnitException(cpUnitText, Dimension.SpecificHeat, UnitCatalog.Accepted(Dimension.SpecificHeat)).Message);
+                    else if (!UnitCatalog.TryResolve(tUnitText, Dimension.Temperature, out var tUnit)) n.Error("temperatureUnit", new UnknownUnitException(tUnitText, Dimension.Temperature, UnitCatalog.Accepted(Dimension.Temperature)).Message);
+                    else if (coeffs.Count > 0 && !coeffs.Any(double.IsNaN))
+                    {
+                        // cp = Σ aᵢ·xⁱ with x = (T − offset)/scale in the stated temperature unit; in kelvin: aᵢ/scaleⁱ.
+                        var si = coeffs.Select((a, i) => a * cpUnit.Scale / Math.Pow(tUnit.Scale, i)).ToList();
+                        result = new PolynomialSpecificHeat(si, tUnit.ToSi(0), range, n.String("name") ?? "cp(T) polynomial");
+                    }
+                    break;
+                }
+                case "cp-table":
+                {
+                    var points = new List<(double, double)>();
+                    foreach (var (e, path) in n.Array("points", required: true))
+                    {
+                        if (e.ValueKind != JsonValueKind.Array || e.GetArrayLength() != 2) { n.ErrorAt(path, "must be a pair [\"50 degC\", \"2.05 kJ/kgK\"]."); continue; }
+                        var t = n.ParseQuantity($"{path}[0]", e[0], Dimension.Temperature, minSi: 0);
+                        var c = n.ParseQuantity($"{path}[1]", e[1], Dimension.SpecificHeat, minSi: 100, maxSi: 20_000);
+                        if (t is not null && c is not null) points.Add((t.Value, c.Value));
+                    }
+                    if (points.Count >= 2) result = new TabulatedSpecificHeat(points, n.String("name") ?? "cp(T) table");
+                    else n.Error("points", "needs at least two points.");
+                    break;
+                }
+                case "petroleum":
+                {
+                    var api = n.Number("api", min: 0, max: 100);
+                    var sg = n.Number("sg", min: 0.5, max: 1.2);
+                    var k = n.Number("watsonK", required: true, min: 9, max: 14);
+                    if (api is null == sg is null) n.ErrorHere("give either api (API gravity) or sg (specific gravity 60/60 °F), one of them.");
+                    else if (k is not null) result = api is not null ? KeslerLeePetroleumLiquid.FromApiGravity(api.Value, k.Value) : new KeslerLeePetroleumLiquid(sg!.Value, k.Value);
+                    break;
+                }
+                case "condensing-steam":
+                case "evaporating-water":
+                {
+                    var p = ReadPressure(n, "pressure", atmosphere);
+                    if (p is null && !n.Has("pressure")) n.Error("pressure", "is missing; a phase-change side needs its saturation pressure, e.g. \"4 barg\".");
+                    if (p is not null)
+                    {
+                        pressure = p.Value;
+                        var band = n.Quantity("saturationBand", Dimension.TemperatureDifference, minSi: 0, maxSi: 10) ?? 0.5;
+                        result = new SteamPhaseChange(new Pressure(p.Value), model!.StartsWith("condensing", StringComparison.OrdinalIgnoreCase) ? PhaseChangeDirection.Condensing : PhaseChangeDirection.Evaporating, band);
+                    }
+                    break;
+                }
+                case null: break;
+                default:
+                    var near = Suggest.Closest(model, FluidModels);
+                    n.Error("model", $"'{model}' is not a fluid model; " + (near is null ? "use one of " + string.Join(", ", FluidModels.Select(f => $"\"{f}\"")) : $"did you mean \"{near}\"?"));
+                    break;
+            }
+        }
+        catch (QuantityOutOfRangeException ex) { n.ErrorHere(ex.Message); }
+        catch (ArgumentException ex) { n.ErrorHere(ex.Message); }
+        n.Allow("name", "pressure", "saturationBand", "api", "sg", "watsonK", "cp", "coefficients", "cpUnit", "temperatureUnit", "points");
+        n.Done();
+        return result;
+    }
+
+    private static TagReference? ReadTag(JsonNode? n, Dimension dimension, double atmosphere, double defaultMin, double defaultMax)
+    {
+        if (n is null) return null;
+        var tag = n.String("tag", required: true);
+        var unitText = n.String("unit", required: true);
+        var source = n.String("source");
+        LinearUnit unit = default;
+        double? density = null;
+        var ok = unitText is not null;
+        if (unitText is not null)
+        {
+            if (dimension == Dimension.Pressure)
+            {
+                try { unit = UnitCatalog.ResolvePressure(unitText, atmosphere); }
+                catch (UnknownUnitException ex) { n.Error("unit", ex.Message); ok = false; }
+            }
+            else if (UnitCatalog.TryResolve(unitText, dimension, out unit)) { }
+            else if (dimension == Dimension.MassFlow && UnitCatalog.TryResolve(unitText, Dimension.VolumetricFlow, out unit))
+            {
+                density = n.Quantity("density", Dimension.Density, minSi: 1, maxSi: 2000);
+                if (density is null && !n.Has("density")) { n.Error("density", $"is missing; a volumetric flow in '{unitText}' needs the fluid density, e.g. \"850 kg/m3\"."); ok = false; }
+                if (density is null) ok = false;
+            }
+            else
+            {
+                var accepted = UnitCatalog.Accepted(dimension).Concat(dimension == Dimension.MassFlow ? UnitCatalog.Accepted(Dimension.VolumetricFlow).Select(v => v + " (with density)") : []);
+                n.Error("unit", $"'{unitText}' is not a {UnknownUnitException.Describe(dimension)} unit; use {string.Join(", ", accepted)}.");
+                ok = false;
+            }
+        }
+        n.Allow("density");
+        double? absAcc = null, relAcc = null;
+        if (n.Has("accuracy"))
+        {
+            var text = n.Element.GetProperty("accuracy").ValueKind == JsonValueKind.String ? n.Element.GetProperty("accuracy").GetString()!.Trim() : null;
+            if (text is not null && text.EndsWith('%')) relAcc = n.Fraction("accuracy", min: 0, max: 0.5);
+            else if (dimension == Dimension.Temperature) absAcc = n.Quantity("accuracy", Dimension.TemperatureDifference, minSi: 0);
+            else if (dimension == Dimension.MassFlow && ok) absAcc = n.Quantity("accuracy", Dimension.MassFlow, minSi: 0);
+            else absAcc = n.Quantity("accuracy", dimension, minSi: 0);
+        }
+        else if (dimension == Dimension.Temperature) absAcc = 0.5;       // common practice: installed RTD/thermocouple ±0.5 K
+        else if (dimension == Dimension.MassFlow) relAcc = 0.02;          // common practice: ±2 % of reading for process flow meters
+        var min = defaultMin;
+        var max = defaultMax;
+        var rangeItems = n.Array("range");
+        if (rangeItems.Count == 2 && ok)
+        {
+            var lo = n.ParseQuantity(rangeItems[0].Path, rangeItems[0].Element, dimension == Dimension.MassFlow && density is not null ? Dimension.VolumetricFlow : dimension);
+            var hi = n.ParseQuantity(rangeItems[1].Path, rangeItems[1].Element, dimension == Dimension.MassFlow && density is not null ? Dimension.VolumetricFlow : dimension);
+            if (lo is not null) min = lo.Value * (density ?? 1);
+            if (hi is not null) max = hi.Value * (density ?? 1);
+        }
+        else if (rangeItems.Count != 0) n.Error("range", "must be a pair [low, high] with units, e.g. [\"0 t/h\", \"400 t/h\"].");
+        n.Done();
+        if (tag is null || !ok) return null;
+        return new TagReference(tag, source, unit, density, absAcc, relAcc, min, max, n.Path);
+    }
+}

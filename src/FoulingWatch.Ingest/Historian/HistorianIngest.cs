@@ -1,0 +1,315 @@
+using System.Globalization;
+using System.Text;
+using CsvHelper;
+using FoulingWatch.Ingest.Alignment;
+using FoulingWatch.Ingest.Configuration;
+
+namespace FoulingWatch.Ingest.Historian;
+
+/// <summary>The historian data aligned onto the analysis grid, with what was used and rejected.</summary>
+/// <param name="GridStart">UTC start of interval 0; interval k covers [GridStart + k·Interval, GridStart + (k+1)·Interval).</param>
+/// <param name="Series">SI values per tag name, one per interval; NaN marks a missing interval (never written out).</param>
+public sealed record IngestResult(
+    DateTimeOffset GridStart,
+    TimeSpan Interval,
+    int IntervalCount,
+    IReadOnlyDictionary<string, double[]> Series,
+    IReadOnlyDictionary<string, TagLedger> TagLedgers,
+    IReadOnlyList<FileReport> Files,
+    long RowsOfOtherTags)
+{
+    public DateTimeOffset IntervalStart(int k) => GridStart + Interval * k;
+
+    /// <summary>Ledger of an exchanger: the sum of its tags' ledgers (a tag shared by two exchangers counts for both).</summary>
+    public TagLedger ExchangerLedger(ExchangerConfiguration exchanger)
+    {
+        var total = new TagLedger(exchanger.Id);
+        foreach (var t in exchanger.Tags().Select(t => t.Tag).Distinct(StringComparer.Ordinal))
+            if (TagLedgers.TryGetValue(t, out var l))
+            {
+                total.Merge(l);
+                total.IntervalsWithData += l.IntervalsWithData;
+                total.IntervalsBridged += l.IntervalsBridged;
+                total.IntervalsMissing += l.IntervalsMissing;
+            }
+        return total;
+    }
+}
+
+/// <summary>Reads every historian export of a plant in one streaming pass per file and aligns the configured tags onto the grid.</summary>
+/// <remarks>
+/// Rules: values are binned by timestamp, so row order does not matter (out-of-order rows are in effect sorted);
+/// the mean of the values inside an interval is its value; an empty interval is bridged linearly when the
+/// intervals with data around it are at most <see cref="DataSettings.MaxGap"/> apart, else it is missing.
+/// Duplicates: a second row with a timestamp already read from a file with the same columns (the same file or
+/// an overlapping export) is rejected as a duplicate; the first one read is kept (files in name order).
+/// </remarks>
+public static class HistorianIngest
+{
+    private sealed class Channel
+    {
+        public required TagReference Reference;
+        public readonly BinAccumulator Bins = new();
+        public TagLedger Ledger = null!;
+        public HashSet<long>? SeenTimestamps;
+    }
+
+    public static IngestResult Run(PlantConfiguration config, IProgress<(string File, double Fraction)>? progress = null)
+    {
+        var channels = new Dictionary<string, Channel>(StringComparer.Ordinal);
+        var conflicts = new List<ConfigurationError>();
+        foreach (var x in config.Exchangers)
+        foreach (var t in x.Tags())
+        {
+            if (channels.TryGetValue(t.Tag, out var existing))
+            {
+                if (existing.Reference.Unit.Scale != t.Unit.Scale || existing.Reference.Unit.Offset != t.Unit.Offset || existing.Reference.Density != t.Density)
+                    conflicts.Add(new ConfigurationError($"{t.Path}.unit", $"tag '{t.Tag}' is also used at {existing.Reference.Path} with another unit; one tag has one unit."));
+                continue;
+            }
+            channels[t.Tag] = new Channel { Reference = t, Ledger = new TagLedger(t.Tag) };
+        }
+        if (conflicts.Count > 0) throw new ConfigurationException(config.File, conflicts);
+
+        var interval = config.Data.Interval.Ticks;
+        long? windowStart = config.Data.WindowStart?.UtcTicks;
+        long? windowEnd = config.Data.WindowEnd?.UtcTicks;
+        var files = new List<FileReport>();
+        var foundIn = new Dictionary<string, List<string>>(StringComparer.Ordinal);
+        long otherRows = 0;
+        var allFiles = config.Data.Sources.SelectMany(s => s.Files.Select(f => (Source: s, File: f))).ToList();
+        var done = 0;
+        foreach (var source in config.Data.Sources)
+        {
+            var signatures = new Dictionary<string, HashSet<long>>(StringComparer.Ordinal);
+            foreach (var file in source.Files)
+            {
+                var dialect = FileDialectDetector.Detect(file, source);
+                var report = source.Layout == HistorianLayout.Wide
+                    ? ReadWide(file, source, dialect, config, channels, signatures, foundIn, interval, windowStart, windowEnd)
+                    : ReadLong(file, source, dialect, config, channels, foundIn, interval, windowStart, windowEnd, ref otherRows);
+                files.Add(report);
+                progress?.Report((file, ++done / (double)allFiles.Count));
+            }
+        }
+
+        var missingTags = channels.Values.Where(c => !foundIn.ContainsKey(c.Reference.Tag)).ToList();
+        if (missingTags.Count > 0)
+            throw new ConfigurationException(config.File, missingTags.Select(c => new ConfigurationError($"{c.Reference.Path}.tag",
+                $"'{c.Reference.Tag}' is not in the data: no column or row of that tag in {string.Join(", ", allFiles.Select(f => Path.GetFileName(f.File)))}. Check the tag name against the export header.")).ToList());
+
+        long first, last;
+        if (windowStart is not null && windowEnd is not null)
+        {
+            first = windowStart.Value / interval;
+            last = (windowEnd.Value - 1) / interval;
+        }
+        else
+        {
+            var withData = channels.Values.Where(c => !c.Bins.IsEmpty).ToList();
+            first = windowStart is not null ? windowStart.Value / interval : withData.Count == 0 ? 0 : withData.Min(c => c.Bins.MinimumBin);
+            last = windowEnd is not null ? (windowEnd.Value - 1) / interval : withData.Count == 0 ? 0 : withData.Max(c => c.Bins.MaximumBin);
+        }
+        var count = (int)Math.Max(0, last - first + 1);
+        var maxGapIntervals = (int)Math.Max(1, config.Data.MaxGap.Ticks / interval);
+        var series = new Dictionary<string, double[]>(StringComparer.Ordinal);
+        foreach (var (tag, c) in channels)
+        {
+            var means = c.Bins.Means(first, count);
+            var (withData, bridged, missing) = GapBridge.Bridge(means, maxGapIntervals);
+            c.Ledger.IntervalsWithData = withData;
+            c.Ledger.IntervalsBridged = bridged;
+            c.Ledger.IntervalsMissing = missing;
+            series[tag] = means;
+        }
+        return new IngestResult(new DateTimeOffset(first * interval, TimeSpan.Zero), config.Data.Interval, count, series,
+            channels.ToDictionary(kv => kv.Key, kv => kv.Value.Ledger, StringComparer.Ordinal), files, otherRows);
+    }
+
+    private static CsvReader OpenReader(string file, FileDialect dialect)
+    {
+        var stream = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite, 1 << 16, FileOptions.SequentialScan);
+        stream.Position = dialect.HeaderByteOffset;
+        var options = new CsvReaderOptions
+        {
+            Separator = dialect.Delimiter,
+            HasHeader = true,
+            Encoding = dialect.Encoding,
+            TrimWhitespace = true,
+            TrackLineNumbers = true,
+            FieldCountMismatch = CsvFieldCountHandling.Allow,
+            SkipEmptyLines = true,
+        };
+        return CsvReader.Create(stream, options, leaveOpen: false);
+    }
+
+    private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
+        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>> signatures, Dictionary<string, List<string>> foundIn,
+        long interval, long? windowStart, long? windowEnd)
+    {
+        var header = dialect.Header;
+        var tsColumn = FileDialectDetector.TimestampColumnIndex(header, source);
+        if (tsColumn < 0)
+            throw new IngestException(file, dialect.HeaderLine, null, $"no timestamp column '{source.Timestamp.Column}' in the header ({string.Join(", ", header.Take(8))}…); set {source.Path}.timestamp.column.");
+        var columns = new List<(int Index, Channel Channel)>();
+        for (var i = 0; i < header.Count; i++)
+        {
+            if (i == tsColumn || !channels.TryGetValue(header[i], out var c)) continue;
+            if (c.Reference.Source is not null && c.Reference.Source != source.Id) continue;
+            columns.Add((i, c));
+            (foundIn.TryGetValue(c.Reference.Tag, out var l) ? l : foundIn[c.Reference.Tag] = []).Add(file);
+        }
+        var signature = string.Join("\u0001", columns.Select(c => c.Channel.Reference.Tag).Order(StringComparer.Ordinal));
+        if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = [];
+
+        var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
+        var decimalByte = (byte)dialect.DecimalSeparator;
+        var markers = MarkerSet(source);
+        long rows = 0;
+        var name = Path.GetFileName(file);
+        using var reader = OpenReader(file, dialect);
+        reader.ReadHeader();
+        var skip = dialect.MetadataRows;
+        while (reader.Read())
+        {
+            if (skip > 0) { skip--; continue; }
+            rows++;
+            var outcome = parser.Parse(reader.GetSpan(tsColumn), out var utc);
+            RejectReason? rowReason = outcome switch
+            {
+                TimestampOutcome.Bad => RejectReason.BadTimestamp,
+                TimestampOutcome.NonexistentLocalTime => RejectReason.NonexistentLocalTime,
+                _ => null,
+            };
+            if (rowReason is null && ((windowStart is not null && utc < windowStart) || (windowEnd is not null && utc >= windowEnd))) rowReason = RejectReason.OutsideWindow;
+            if (rowReason is null && !seen.Add(utc)) rowReason = RejectReason.Duplicate;
+            if (rowReason is { } rr)
+            {
+                var line = dialect.HeaderLine - 1 + reader.LineNumber;
+                var tsText = rr is RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime ? Encoding.UTF8.GetString(reader.GetSpan(tsColumn)) : null;
+                foreach (var (_, c) in columns)
+                    c.Ledger.CountRejected(rr, () => Example(name, line, tsColumn + 1, c.Reference.Tag, rr, tsText));
+                continue;
+            }
+            var bin = utc / interval;
+            foreach (var (index, c) in columns)
+                AddValue(c, reader, index, bin, decimalByte, markers, name, dialect.HeaderLine - 1);
+        }
+        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
+            rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
+    }
+
+    private static FileReport ReadLong(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
+        Dictionary<string, Channel> channels, Dictionary<string, List<string>> foundIn, long interval, long? windowStart, long? windowEnd, ref long otherRows)
+    {
+        var header = dialect.Header;
+        int Find(string name) => header.ToList().FindIndex(h => h.Equals(name, StringComparison.OrdinalIgnoreCase));
+        var tagColumn = Find(source.TagColumn);
+        var valueColumn = Find(source.ValueColumn);
+        var tsColumn = FileDialectDetector.TimestampColumnIndex(header, source);
+        var qualityColumn = source.QualityColumn is null ? -1 : Find(source.QualityColumn);
+        foreach (var (col, what, key) in new[] { (tagColumn, source.TagColumn, "tagColumn"), (valueColumn, source.ValueColumn, "valueColumn"), (tsColumn, source.Timestamp.Column ?? "Timestamp", "timestamp.column") })
+            if (col < 0)
+                throw new IngestException(file, dialect.HeaderLine, null, $"no column '{what}' in the header ({string.Join(", ", header)}); set {source.Path}.{key}.");
+        if (source.QualityColumn is not null && qualityColumn < 0)
+            throw new IngestException(file, dialect.HeaderLine, null, $"no quality column '{source.QualityColumn}' in the header ({string.Join(", ", header)}); set {source.Path}.qualityColumn or remove it.");
+
+        var good = new HashSet<string>(source.GoodQuality, StringComparer.OrdinalIgnoreCase);
+        var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
+        var decimalByte = (byte)dialect.DecimalSeparator;
+        var markers = MarkerSet(source);
+        var byName = channels.Values.Where(c => c.Reference.Source is null || c.Reference.Source == source.Id)
+            .ToDictionary(c => c.Reference.Tag, StringComparer.OrdinalIgnoreCase);
+        long rows = 0;
+        var name = Path.GetFileName(file);
+        using var reader = OpenReader(file, dialect);
+        reader.ReadHeader();
+        var skip = dialect.MetadataRows;
+        while (reader.Read())
+        {
+            if (skip > 0) { skip--; continue; }
+            rows++;
+            var tag = Encoding.UTF8.GetString(reader.GetSpan(tagColumn));
+            if (!byName.TryGetValue(tag, out var c)) { otherRows++; continue; }
+            if (!foundIn.ContainsKey(c.Reference.Tag)) foundIn[c.Reference.Tag] = [];
+            if (foundIn[c.Reference.Tag].Count == 0 || foundIn[c.Reference.Tag][^1] != file) foundIn[c.Reference.Tag].Add(file);
+            var line = dialect.HeaderLine - 1 + reader.LineNumber;
+            var outcome = parser.Parse(reader.GetSpan(tsColumn), out var utc);
+            RejectReason? reason = outcome switch
+            {
+                TimestampOutcome.Bad => RejectReason.BadTimestamp,
+                TimestampOutcome.NonexistentLocalTime => RejectReason.NonexistentLocalTime,
+                _ => null,
+            };
+            if (reason is null && ((windowStart is not null && utc < windowStart) || (windowEnd is not null && utc >= windowEnd))) reason = RejectReason.OutsideWindow;
+            if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn)))) reason = RejectReason.BadQuality;
+            c.SeenTimestamps ??= [];
+            if (reason is null && !c.SeenTimestamps.Add(utc)) reason = RejectReason.Duplicate;
+            if (reason is { } r)
+            {
+                var detail = r switch
+                {
+                    RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime => Encoding.UTF8.GetString(reader.GetSpan(tsColumn)),
+                    RejectReason.BadQuality => Encoding.UTF8.GetString(reader.GetSpan(qualityColumn)),
+                    _ => null,
+                };
+                var col = r == RejectReason.BadQuality ? qualityColumn + 1 : tsColumn + 1;
+                c.Ledger.CountRejected(r, () => Example(name, line, col, c.Reference.Tag, r, detail));
+                continue;
+            }
+            AddValue(c, reader, valueColumn, utc / interval, decimalByte, markers, name, dialect.HeaderLine - 1);
+        }
+        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
+            rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
+    }
+
+    private static Dictionary<string, string> MarkerSet(HistorianSource source) =>
+        source.Markers.Distinct(StringComparer.OrdinalIgnoreCase).ToDictionary(m => m, m => m, StringComparer.OrdinalIgnoreCase);
+
+    private static void AddValue(Channel c, CsvReader reader, int column, long bin, byte decimalByte, Dictionary<string, string> markers,
+        string file, long lineOffset)
+    {
+        var span = reader.GetSpan(column);
+        if (span.IsEmpty)
+        {
+            c.Ledger.CountRejected(RejectReason.Empty, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.Empty, null));
+            return;
+        }
+        if (!csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte) || consumed != span.Length || !double.IsFinite(reading))
+        {
+            var text = Encoding.UTF8.GetString(span).Trim();
+            if (markers.TryGetValue(text, out var marker))
+            {
+                c.Ledger.CountMarker(marker);
+                c.Ledger.CountRejected(RejectReason.TextMarker, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.TextMarker, text));
+            }
+            else
+                c.Ledger.CountRejected(RejectReason.NotANumber, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.NotANumber, text));
+            return;
+        }
+        var si = c.Reference.ToSi(reading);
+        if (si < c.Reference.RangeMinimum || si > c.Reference.RangeMaximum)
+        {
+            c.Ledger.CountRejected(RejectReason.OutOfRange, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.OutOfRange,
+                reading.ToString(CultureInfo.InvariantCulture)));
+            return;
+        }
+        c.Ledger.CountUsed();
+        c.Bins.Add(bin, si);
+    }
+
+    /// <summary>One rejection described for a person: where, what, and what to do.</summary>
+    public static string Example(string file, long line, int column, string tag, RejectReason reason, string? text) => reason switch
+    {
+        RejectReason.Empty => $"{file}: line {line}, column {column} ({tag}): the field is empty; the value is counted as rejected.",
+        RejectReason.TextMarker => $"{file}: line {line}, column {column} ({tag}): '{text}' is a historian marker, not a value; the value is counted as rejected.",
+        RejectReason.NotANumber => $"{file}: line {line}, column {column} ({tag}): '{text}' is not a number; the value is counted as rejected. Check how the historian exports this tag, or add the text to the source's markers.",
+        RejectReason.OutOfRange => $"{file}: line {line}, column {column} ({tag}): {text} is outside the tag's physical range; the value is counted as rejected. Widen the tag's range if the reading is real.",
+        RejectReason.BadTimestamp => $"{file}: line {line}, column {column} ({tag}): '{text}' is not a timestamp; the row is counted as rejected. Set the source's timestamp.format if the export uses another format.",
+        RejectReason.NonexistentLocalTime => $"{file}: line {line}, column {column} ({tag}): '{text}' falls in the skipped daylight-saving hour; the row is counted as rejected.",
+        RejectReason.BadQuality => $"{file}: line {line}, column {column} ({tag}): quality '{text}' is not good; the value is counted as rejected.",
+        RejectReason.Duplicate => $"{file}: line {line} ({tag}): this timestamp was already read; the first value is kept and this one counted as a duplicate.",
+        RejectReason.OutsideWindow => $"{file}: line {line} ({tag}): the timestamp is outside the analysis window; counted as outside-window.",
+        _ => $"{file}: line {line}, column {column} ({tag}): {reason.Key()}",
+    };
+}

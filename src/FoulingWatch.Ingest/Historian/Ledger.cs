@@ -1,0 +1,104 @@
+namespace FoulingWatch.Ingest.Historian;
+
+/// <summary>Why a value read from an export was not used.</summary>
+public enum RejectReason
+{
+    /// <summary>The field is empty.</summary>
+    Empty,
+    /// <summary>A historian text marker such as "Bad" or "I/O Timeout" stands where the number belongs.</summary>
+    TextMarker,
+    /// <summary>Text that is neither a number nor a known marker.</summary>
+    NotANumber,
+    /// <summary>The quality column says the value is not good.</summary>
+    BadQuality,
+    /// <summary>A second value for a timestamp already read (the first one is kept).</summary>
+    Duplicate,
+    /// <summary>Outside the tag's physical range (negative flow, temperature beyond the plausible band).</summary>
+    OutOfRange,
+    /// <summary>The timestamp lies outside the configured analysis window.</summary>
+    OutsideWindow,
+    /// <summary>The row's timestamp cannot be read.</summary>
+    BadTimestamp,
+    /// <summary>A local time inside the skipped spring hour, which no correct clock shows.</summary>
+    NonexistentLocalTime,
+}
+
+public static class RejectReasons
+{
+    public static readonly RejectReason[] All = Enum.GetValues<RejectReason>();
+
+    /// <summary>Key used in ledgers and JSON, e.g. "text-marker".</summary>
+    public static string Key(this RejectReason r) => r switch
+    {
+        RejectReason.Empty => "empty",
+        RejectReason.TextMarker => "text-marker",
+        RejectReason.NotANumber => "not-a-number",
+        RejectReason.BadQuality => "bad-quality",
+        RejectReason.Duplicate => "duplicate",
+        RejectReason.OutOfRange => "out-of-range",
+        RejectReason.OutsideWindow => "outside-window",
+        RejectReason.BadTimestamp => "bad-timestamp",
+        RejectReason.NonexistentLocalTime => "nonexistent-local-time",
+        _ => r.ToString(),
+    };
+}
+
+/// <summary>What happened to every value of one tag: read = used + Σ rejected, and how the grid intervals were filled.</summary>
+public sealed class TagLedger
+{
+    private const int MaxExamples = 5;
+
+    public TagLedger(string tag) => Tag = tag;
+
+    public string Tag { get; }
+    public long Read { get; private set; }
+    public long Used { get; private set; }
+    public long[] Rejected { get; } = new long[RejectReasons.All.Length];
+    public SortedDictionary<string, long> Markers { get; } = new(StringComparer.Ordinal);
+    public List<string> Examples { get; } = [];
+    public long IntervalsWithData { get; internal set; }
+    public long IntervalsBridged { get; internal set; }
+    public long IntervalsMissing { get; internal set; }
+    public long RejectedTotal => Rejected.Sum();
+
+    internal void CountUsed()
+    {
+        Read++;
+        Used++;
+    }
+
+    internal void CountRejected(RejectReason reason, Func<string>? example = null)
+    {
+        Read++;
+        Rejected[(int)reason]++;
+        if (example is not null && Examples.Count < MaxExamples && Rejected[(int)reason] <= 2) Examples.Add(example());
+    }
+
+    internal void CountMarker(string marker)
+    {
+        Markers.TryGetValue(marker, out var n);
+        Markers[marker] = n + 1;
+    }
+
+    internal void Merge(TagLedger other)
+    {
+        Read += other.Read;
+        Used += other.Used;
+        for (var i = 0; i < Rejected.Length; i++) Rejected[i] += other.Rejected[i];
+        foreach (var (k, v) in other.Markers) { Markers.TryGetValue(k, out var n); Markers[k] = n + v; }
+        foreach (var e in other.Examples) if (Examples.Count < MaxExamples) Examples.Add(e);
+    }
+}
+
+/// <summary>How one export file was read.</summary>
+public sealed record FileReport(
+    string File,
+    string Encoding,
+    char Delimiter,
+    char DecimalSeparator,
+    int HeaderLine,
+    int MetadataRows,
+    long DataRows,
+    long AmbiguousLocalTimesAsDaylight,
+    long AmbiguousLocalTimesAsStandard,
+    IReadOnlyList<string> Columns);

@@ -1,0 +1,134 @@
+using FoulingWatch.Core.Exchangers;
+using FoulingWatch.Ingest.Configuration;
+
+namespace FoulingWatch.Ingest.Tests.Configuration;
+
+public class PlantConfigurationReaderTests
+{
+    private static ConfigurationException Fails(string exchangers, string source = "{ \"files\": [\"*.csv\"] }")
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig(source, exchangers);
+        return Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+    }
+
+    [Fact]
+    public void A_valid_configuration_reads_into_SI()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }");
+        var config = PlantConfigurationReader.Load(plant.ConfigPath);
+        var x = Assert.Single(config.Exchangers);
+        Assert.Equal("E-101", x.Id);
+        Assert.Equal(250.0, x.Area);
+        Assert.IsType<OneShellPassEvenTubePasses>(x.Arrangement);
+        Assert.Equal(1000.0 / 3600.0, x.Hot.Flow.Unit.Scale, 12);
+        Assert.Equal(120_000.0 / 3600.0, x.Hot.DesignFlow!.Value, 9);
+        Assert.Equal(ExchangerSide.Tube, x.Cold.Side);
+        var clean = Assert.IsType<DatasheetCleanReference>(x.Clean);
+        Assert.Equal(450.0, clean.CleanU);
+        Assert.Equal(0.8, clean.TubeExponent);
+        Assert.Equal(0.6, clean.ShellExponent);
+        Assert.Equal(TimeSpan.FromMinutes(10), config.Data.Interval);
+        Assert.Single(config.Data.Sources[0].Files);
+    }
+
+    [Fact]
+    public void A_mass_flow_in_an_unknown_unit_names_the_key_and_the_accepted_units()
+    {
+        var ex = Fails(TestPlant.Interchanger(flowUnit: "kg/min"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].hot.flow.unit", e.Path);
+        Assert.Equal("'kg/min' is not a mass-flow unit; use kg/s, kg/h, t/h, t/d, lb/h, klb/h, lb/s, m3/s (with density), m3/h (with density), m3/d (with density), L/s (with density), L/min (with density), US gpm (with density), bbl/d (with density).", e.Message);
+        Assert.StartsWith("plant.json: exchangers[0].hot.flow.unit: 'kg/min' is not a mass-flow unit", ex.Message);
+    }
+
+    [Fact]
+    public void An_unknown_key_is_an_error_with_a_suggestion()
+    {
+        var ex = Fails(TestPlant.Interchanger(extra: ", \"limts\": { \"foulingResistance\": \"0.0008 m2K/W\" }"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].limts", e.Path);
+        Assert.Equal("is not a known key here; did you mean 'limits'?", e.Message);
+    }
+
+    [Fact]
+    public void A_number_without_its_unit_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger().Replace("\"250 m2\"", "250"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].area", e.Path);
+        Assert.Equal("250 has no unit; every number carries its unit, e.g. \"250 m2\".", e.Message);
+    }
+
+    [Fact]
+    public void All_problems_are_reported_at_once()
+    {
+        var bad = TestPlant.Interchanger(flowUnit: "kg/min")
+            .Replace("\"250 m2\"", "\"-3 m2\"")
+            .Replace("\"shell-and-tube\"", "\"shell-and-tub\"")
+            .Replace("\"datasheet\"", "\"guess\"");
+        var ex = Fails(bad);
+        var paths = ex.Errors.Select(e => e.Path).ToList();
+        Assert.Contains("exchangers[0].hot.flow.unit", paths);
+        Assert.Contains("exchangers[0].area", paths);
+        Assert.Contains("exchangers[0].arrangement", paths);
+        Assert.Contains("exchangers[0].clean.method", paths);
+        Assert.Contains("did you mean \"shell-and-tube\"?", ex.Errors.Single(e => e.Path == "exchangers[0].arrangement").Message);
+        Assert.StartsWith($"{ex.Errors.Count} problems in plant.json:", ex.Message);
+    }
+
+    [Fact]
+    public void Invalid_json_names_the_line()
+    {
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Parse("{\n  \"site\": { \"name\": \"x\" }\n  \"data\": {}\n}", "plant.json"));
+        Assert.StartsWith("line 3, column", Assert.Single(ex.Errors).Path);
+    }
+
+    [Fact]
+    public void A_file_pattern_matching_nothing_is_an_error()
+    {
+        using var plant = new TestPlant().WithConfig("{ \"files\": [\"exports/*.csv\"] }");
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        Assert.Equal("data.sources[0].files[0]", Assert.Single(ex.Errors).Path);
+        Assert.Contains("matches no file", ex.Errors[0].Message);
+    }
+
+    [Fact]
+    public void A_volumetric_flow_needs_a_density()
+    {
+        var ex = Fails(TestPlant.Interchanger(flowUnit: "m3/h"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].hot.flow.density", e.Path);
+        Assert.StartsWith("is missing; a volumetric flow in 'm3/h' needs the fluid density", e.Message);
+    }
+
+    [Fact]
+    public void Both_streams_on_one_side_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger().Replace("\"side\": \"tube\"", "\"side\": \"shell\""));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].cold.side");
+    }
+
+    [Fact]
+    public void Unknown_time_zone_is_refused()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }", timeZone: "Europe/Atlantis");
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        Assert.Equal("site.timeZone", Assert.Single(ex.Errors).Path);
+    }
+
+    // Source: IPCC 2006 Guidelines, Vol. 2, ch. 1, Table 1.4: natural gas 56 100 kg CO2/TJ (default).
+    [Fact]
+    public void Economics_default_to_the_IPCC_factor_of_the_fuel()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv");
+        plant.WithConfig("{ \"files\": [\"*.csv\"] }");
+        var text = File.ReadAllText(plant.ConfigPath).Replace("\"data\":",
+            "\"economics\": { \"currency\": \"EUR\", \"fuel\": \"natural-gas\", \"fuelPrice\": \"9 EUR/GJ\", \"heaterEfficiency\": \"85 %\", \"co2Price\": \"80 EUR/t\" },\n \"data\":");
+        File.WriteAllText(plant.ConfigPath, text);
+        var e = PlantConfigurationReader.Load(plant.ConfigPath).Economics;
+        Assert.Equal(56_100e-12, e.Co2KilogramsPerJoule!.Value, 56_100e-12 * 1e-12);
+        Assert.Equal(9e-9, e.FuelPricePerJoule!.Value, 9e-9 * 1e-12);
+        Assert.Equal(0.85, e.HeaterEfficiency!.Value, 12);
+        Assert.Equal(0.08, e.Co2PricePerKilogram!.Value, 12);
+    }
+}
