@@ -1,4 +1,7 @@
 using System.CommandLine;
+using FoulingWatch.Core.Quantities;
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
 
 namespace FoulingWatch.Cli;
 
@@ -12,17 +15,55 @@ public static class FoulingWatchCommand
     public static int Run(string[] args, TextWriter output, TextWriter error)
     {
         var root = new RootCommand("FoulingWatch: fouling monitoring of operating heat exchangers from historian exports.");
-        var demo = new Command("demo", "Run the whole job on the bundled sample plant and say where the results are.");
-        demo.SetAction(_ =>
+
+        var configOption = new Option<FileInfo>("--config", "-c") { Description = "The plant configuration (JSON).", Required = true };
+        var jsonOption = new Option<bool>("--json") { Description = "Write machine-readable JSON to standard output instead of tables." };
+
+        var check = new Command("check", "Validate the configuration and the data and show the quality ledger, without analysing.");
+        check.Options.Add(configOption);
+        check.Options.Add(jsonOption);
+        check.SetAction(p => Guard(error, () => CheckCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(jsonOption), output, error)));
+        root.Subcommands.Add(check);
+
+        var outOption = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the results (created if needed).", Required = true };
+        var quietOption = new Option<bool>("--quiet", "-q") { Description = "Print nothing but errors." };
+        var analyze = new Command("analyze", "Run the whole job on a plant: ingest, back-calculate U and fouling resistance, write results.");
+        analyze.Options.Add(configOption);
+        analyze.Options.Add(outOption);
+        analyze.Options.Add(jsonOption);
+        analyze.Options.Add(quietOption);
+        analyze.SetAction(p => Guard(error, () => AnalyzeCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(outOption)!.FullName,
+            p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
+        root.Subcommands.Add(analyze);
+
+        var demoOut = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the demo results.", DefaultValueFactory = _ => new DirectoryInfo("foulingwatch-demo") };
+        var demo = new Command("demo", "Run the whole job on the bundled sample plant (Kestrel Bay, invented) and say where the results are.");
+        demo.Options.Add(demoOut);
+        demo.SetAction(p => Guard(error, () =>
         {
-            output.WriteLine("FoulingWatch demo");
-            output.WriteLine("  physics core ............ ready");
-            output.WriteLine("  ingest .................. not yet");
-            output.WriteLine("  back-calculation ........ not yet");
-            return Success;
-        });
+            var plant = AnalyzeCommand.FindSamplePlant();
+            if (plant is null)
+            {
+                error.WriteLine("The sample plant (sample-data/plant.json) was not found; run the demo from the FoulingWatch folder.");
+                return UsageOrConfigurationError;
+            }
+            output.WriteLine($"FoulingWatch demo on {plant}");
+            return AnalyzeCommand.Run(plant, p.GetValue(demoOut)!.FullName, json: false, quiet: false, output, error);
+        }));
         root.Subcommands.Add(demo);
+
         var parsed = root.Parse(args);
         return parsed.Invoke(new InvocationConfiguration { Output = output, Error = error });
+    }
+
+    /// <summary>Runs a command body, turning known failures into a message on stderr and the documented exit code.</summary>
+    public static int Guard(TextWriter error, Func<int> body)
+    {
+        try { return body(); }
+        catch (ConfigurationException ex) { error.WriteLine(ex.Message); return UsageOrConfigurationError; }
+        catch (IngestException ex) { error.WriteLine(ex.Message); return DataError; }
+        catch (QuantityOutOfRangeException ex) { error.WriteLine(ex.Message); return DataError; }
+        catch (IOException ex) { error.WriteLine($"cannot read or write a file: {ex.Message}"); return DataError; }
+        catch (UnauthorizedAccessException ex) { error.WriteLine($"no permission: {ex.Message}"); return DataError; }
     }
 }

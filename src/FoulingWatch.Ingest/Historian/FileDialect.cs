@@ -22,10 +22,13 @@ public static class FileDialectDetector
     public static FileDialect Detect(string file, HistorianSource source)
     {
         byte[] sample;
-        using (var fs = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite))
+        using (var fs = ExportStream.Open(file))
         {
-            sample = new byte[Math.Min(SampleBytes, fs.Length)];
-            fs.ReadExactly(sample);
+            var buffer = new byte[SampleBytes];
+            var filled = 0;
+            int read;
+            while (filled < buffer.Length && (read = fs.Read(buffer, filled, buffer.Length - filled)) > 0) filled += read;
+            sample = buffer[..filled];
         }
         if (sample.Length == 0) throw new IngestException(file, null, null, "the file is empty; export the tags again.");
 
@@ -63,6 +66,8 @@ public static class FileDialectDetector
             if (headerIndex >= lines.Count) throw new IngestException(file, hl, null, $"headerLine {hl} is beyond the first {lines.Count} lines of the file.");
         }
         else headerIndex = DetectHeader(lines.Select(l => l.Text).Take(80).ToList(), delimiter, source);
+        if (headerIndex < 0)
+            throw new IngestException(file, null, null, $"no header line found in the first {Math.Min(80, lines.Count)} lines; set {source.Path}.headerLine (and delimiter if it is not '{delimiter}').");
         var header = SplitLine(lines[headerIndex].Text, delimiter);
 
         var metadata = source.MetadataRows ?? DetectMetadataRows(lines, headerIndex, header, delimiter, source);
@@ -91,7 +96,9 @@ public static class FileDialectDetector
             var tail = counts.Skip(counts.Count / 2).ToList();
             var mode = tail.GroupBy(c => c).OrderByDescending(g => g.Count()).ThenByDescending(g => g.Key).First();
             if (mode.Key == 0) continue;
-            var score = mode.Count() / (double)tail.Count * 1000 + mode.Key;
+            // Consistency of the field count first, then how many fields read as numbers (this separates ';' from a decimal comma).
+            var numeric = lines.Skip(lines.Count / 2).Where(l => l.Length > 0).SelectMany(l => SplitLine(l, d)).Count(f => LooksNumeric(f));
+            var score = mode.Count() / (double)tail.Count * 1000 + numeric + mode.Key * 0.001;
             if (score > bestScore) { bestScore = score; best = d; }
         }
         return best;
@@ -192,6 +199,31 @@ public static class FileDialectDetector
 
     private static bool LooksNumeric(string f) =>
         double.TryParse(f.Replace(',', '.'), NumberStyles.Float, CultureInfo.InvariantCulture, out _);
+}
+
+/// <summary>Opens an export for sequential reading; a name ending in .gz is decompressed on the fly (historian exports are often archived so).</summary>
+public static class ExportStream
+{
+    public static Stream Open(string file)
+    {
+        var fs = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite, 1 << 16, FileOptions.SequentialScan);
+        return file.EndsWith(".gz", StringComparison.OrdinalIgnoreCase) ? new System.IO.Compression.GZipStream(fs, System.IO.Compression.CompressionMode.Decompress) : fs;
+    }
+
+    /// <summary>Opens the export positioned at a byte offset of its (decompressed) content.</summary>
+    public static Stream OpenAt(string file, long offset)
+    {
+        var s = Open(file);
+        if (s.CanSeek) { s.Position = offset; return s; }
+        var skip = new byte[64 * 1024];
+        while (offset > 0)
+        {
+            var n = s.Read(skip, 0, (int)Math.Min(skip.Length, offset));
+            if (n == 0) break;
+            offset -= n;
+        }
+        return s;
+    }
 }
 
 /// <summary>A data problem that stops reading a file (unreadable, not a CSV, a timestamp column missing); names file, line and column.</summary>

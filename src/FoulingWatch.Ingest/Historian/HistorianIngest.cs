@@ -128,8 +128,7 @@ public static class HistorianIngest
 
     private static CsvReader OpenReader(string file, FileDialect dialect)
     {
-        var stream = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite, 1 << 16, FileOptions.SequentialScan);
-        stream.Position = dialect.HeaderByteOffset;
+        var stream = ExportStream.OpenAt(file, dialect.HeaderByteOffset);
         var options = new CsvReaderOptions
         {
             Separator = dialect.Delimiter,

@@ -1,0 +1,236 @@
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
+
+namespace FoulingWatch.Analysis.BackCalculation;
+
+/// <summary>Settings of the operating-state tests; the defaults are common practice for 10-minute historian data.</summary>
+/// <param name="SteadyWindow">Trailing window of the steady-state test.</param>
+/// <param name="SteadyFlowBand">Largest (max − min)/mean of each flow inside the window.</param>
+/// <param name="SteadyTemperatureBand">Largest max − min of each inlet temperature inside the window, K.</param>
+public sealed record OperatingStateSettings(TimeSpan SteadyWindow, double SteadyFlowBand, double SteadyTemperatureBand)
+{
+    public static OperatingStateSettings Default { get; } = new(TimeSpan.FromHours(1), 0.10, 3.0);
+}
+
+/// <summary>One analysed instant of one exchanger.</summary>
+public sealed record SampleResult(DateTimeOffset Timestamp, SampleStatus Status, SampleEvaluation Evaluation, double FoulingResistanceSigma);
+
+/// <summary>What the clean-U reference is and how well it was determined.</summary>
+public sealed record CleanReferenceReport(string Method, string Description, string? Refusal, int CalibrationSamples, double? ResidualStandardDeviation,
+    DateTimeOffset? PeriodStart, DateTimeOffset? PeriodEnd);
+
+/// <summary>Per-sensor check of the heat balance over the latest days: which single sensor bias best explains the mismatch.</summary>
+public sealed record SensorCheck(int Samples, double FractionFailingGlobalTest, string? LikelySensor, string? Tag, double? Bias, string? BiasUnit,
+    double? ExplainedFraction, bool LikelyFault, string Statement);
+
+/// <summary>The back-calculated history of one exchanger.</summary>
+public sealed record ExchangerHistory(ExchangerConfiguration Exchanger, IReadOnlyList<SampleResult> Samples, CleanReferenceReport CleanReference,
+    SensorCheck SensorCheck, string? Refusal);
+
+/// <summary>Turns the aligned historian data of an exchanger into per-sample duty, U, clean U, Rf with σ, and lost duty.</summary>
+public static class BackCalculator
+{
+    public static ExchangerHistory Run(ExchangerConfiguration x, IngestResult data, OperatingStateSettings? settings = null)
+    {
+        settings ??= OperatingStateSettings.Default;
+        var n = data.IntervalCount;
+        double[] S(TagReference t) => data.Series[t.Tag];
+        var series = new[] { S(x.Hot.Flow), S(x.Hot.Inlet), S(x.Hot.Outlet), S(x.Cold.Flow), S(x.Cold.Inlet), S(x.Cold.Outlet) };
+        var pHotSeries = x.Hot.PressureTag is null ? null : S(x.Hot.PressureTag);
+        var pColdSeries = x.Cold.PressureTag is null ? null : S(x.Cold.PressureTag);
+        var evaluator = new SampleEvaluator(x);
+
+        var hotReference = x.Hot.DesignFlow ?? Percentile(series[Measurement.HotFlow], 0.9);
+        var coldReference = x.Cold.DesignFlow ?? Percentile(series[Measurement.ColdFlow], 0.9);
+        var window = Math.Max(1, (int)(settings.SteadyWindow.Ticks / data.Interval.Ticks));
+
+        var evaluations = new SampleEvaluation[n];
+        var status = new SampleStatus[n];
+        Parallel.For(0, n, k =>
+        {
+            var m = new double[Measurement.Count];
+            for (var i = 0; i < m.Length; i++) m[i] = series[i][k];
+            var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
+            var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
+            if (m.Any(double.IsNaN) || double.IsNaN(pHot) || double.IsNaN(pCold))
+            {
+                status[k] = SampleStatus.Missing;
+                evaluations[k] = new SampleEvaluation { Status = SampleStatus.Missing, Measurements = m };
+                return;
+            }
+            if (m[Measurement.HotFlow] < x.DowntimeFlowFraction * hotReference || m[Measurement.ColdFlow] < x.DowntimeFlowFraction * coldReference)
+            {
+                status[k] = SampleStatus.Downtime;
+                evaluations[k] = new SampleEvaluation { Status = SampleStatus.Downtime, Measurements = m };
+                return;
+            }
+            var e = evaluator.Evaluate(m, pHot, pCold, reconcile: true);
+            if (e.Status == SampleStatus.Ok && Math.Abs(e.BalanceMismatch) > x.BalanceTolerance)
+                e = e with { Status = SampleStatus.Balance, Detail = FormattableString.Invariant($"hot and cold duties differ by {e.BalanceMismatch:P1}") };
+            if (e.Status == SampleStatus.Ok && !IsSteady(series, k, window, settings))
+                e = e with { Status = SampleStatus.Unsteady };
+            evaluations[k] = e;
+            status[k] = e.Status;
+        });
+
+        var (clean, cleanReport) = CleanModel(x, data, evaluations, evaluator);
+        if (clean is null)
+            return new ExchangerHistory(x, Build(data, evaluations, new double[n]), cleanReport, SensorCheckOf(x, data, evaluations, evaluator),
+                $"no clean-U reference: {cleanReport.Refusal}");
+
+        var sigmas = new double[n];
+        Parallel.For(0, n, k =>
+        {
+            var e = evaluations[k];
+            if (!(e.UActual > 0)) { sigmas[k] = double.NaN; return; }
+            var used = e.Reconciliation?.Adjusted ?? e.Measurements;
+            evaluations[k] = evaluator.Complete(e, clean, used);
+            var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
+            var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
+            sigmas[k] = e.Status == SampleStatus.Ok ? evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean) : double.NaN;
+        });
+        return new ExchangerHistory(x, Build(data, evaluations, sigmas), cleanReport, SensorCheckOf(x, data, evaluations, evaluator), null);
+    }
+
+    private static List<SampleResult> Build(IngestResult data, SampleEvaluation[] evaluations, double[] sigmas)
+    {
+        var list = new List<SampleResult>(evaluations.Length);
+        for (var k = 0; k < evaluations.Length; k++)
+            list.Add(new SampleResult(data.IntervalStart(k), evaluations[k].Status, evaluations[k], sigmas[k]));
+        return list;
+    }
+
+    /// <summary>Windowed range test over the trailing window: each flow within a band of its mean and each inlet temperature within a band in K; needs half the window present.</summary>
+    private static bool IsSteady(double[][] series, int k, int window, OperatingStateSettings s)
+    {
+        var from = Math.Max(0, k - window + 1);
+        foreach (var (i, isFlow) in new[] { (Measurement.HotFlow, true), (Measurement.ColdFlow, true), (Measurement.HotInlet, false), (Measurement.ColdInlet, false) })
+        {
+            double min = double.MaxValue, max = double.MinValue, sum = 0;
+            var count = 0;
+            for (var j = from; j <= k; j++)
+            {
+                var v = series[i][j];
+                if (double.IsNaN(v)) continue;
+                min = Math.Min(min, v);
+                max = Math.Max(max, v);
+                sum += v;
+                count++;
+            }
+            if (count * 2 < k - from + 1) return false;
+            var band = isFlow ? s.SteadyFlowBand * sum / count : s.SteadyTemperatureBand;
+            if (max - min > band) return false;
+        }
+        return true;
+    }
+
+    private static double Percentile(double[] values, double p)
+    {
+        var v = values.Where(d => !double.IsNaN(d)).Order().ToArray();
+        return v.Length == 0 ? double.NaN : v[(int)Math.Clamp(Math.Round(p * (v.Length - 1)), 0, v.Length - 1)];
+    }
+
+    private static (ICleanUModel?, CleanReferenceReport) CleanModel(ExchangerConfiguration x, IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator)
+    {
+        var tubePhase = x.Tube.Fluid.IsPhaseChange;
+        var shellPhase = x.Shell.Fluid.IsPhaseChange;
+        if (x.Clean is DatasheetCleanReference d)
+        {
+            var model = new DatasheetCleanU(d, tubePhase, shellPhase);
+            return (model, new CleanReferenceReport("datasheet", model.Description, null, 0, null, null, null));
+        }
+        var b = (BaselineCleanReference)x.Clean;
+        var start = b.Start ?? x.Maintenance.Where(m => m.IsCleaning).Select(m => (DateTimeOffset?)m.Date).LastOrDefault()
+                    ?? FirstOk(data, evaluations);
+        if (start is null)
+            return (null, new CleanReferenceReport("baseline", "Wilson-plot baseline", "no usable sample to calibrate on", 0, null, null, null));
+        var end = start.Value + b.Duration;
+        var rows = new List<(double Y, double Xt, double Xs, double W)>();
+        var nt = tubePhase ? 0 : b.TubeExponent;
+        var ns = shellPhase ? 0 : b.ShellExponent;
+        for (var k = 0; k < evaluations.Length; k++)
+        {
+            var t = data.IntervalStart(k);
+            var e = evaluations[k];
+            if (t < start || t >= end || e.Status != SampleStatus.Ok || !(e.UActual > 0)) continue;
+            var sigmaU = SigmaOfInverseU(evaluator, e);
+            var w = sigmaU > 0 ? 1 / (sigmaU * sigmaU) : 1;
+            rows.Add((1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), w));
+        }
+        return WilsonPlot.Fit(rows, nt, ns, start.Value, end);
+    }
+
+    private static DateTimeOffset? FirstOk(IngestResult data, SampleEvaluation[] evaluations)
+    {
+        for (var k = 0; k < evaluations.Length; k++)
+            if (evaluations[k].Status == SampleStatus.Ok) return data.IntervalStart(k);
+        return null;
+    }
+
+    private static double SigmaOfInverseU(SampleEvaluator evaluator, SampleEvaluation e)
+    {
+        // σ(1/U) ≈ σ_Rf with a fixed clean U: reuse the Rf propagation with a clean model of infinite U.
+        var infinite = new WilsonPlotCleanU(0, 0, 0, 0, 0, "none");
+        var x = evaluator.Exchanger;
+        return evaluator.FoulingResistanceSigma(e.Measurements, x.Hot.PressurePascals, x.Cold.PressurePascals, infinite);
+    }
+
+    private static SensorCheck SensorCheckOf(ExchangerConfiguration x, IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator)
+    {
+        var lastIndex = Array.FindLastIndex(evaluations, e => e.Status is SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady);
+        if (lastIndex < 0) return new SensorCheck(0, 0, null, null, null, null, null, false, "no sample with both duties to check");
+        var from = data.IntervalStart(lastIndex) - TimeSpan.FromDays(14);
+        var fs = new List<double>();
+        var js = new List<double[]>();
+        var fails = 0;
+        for (var k = 0; k <= lastIndex; k++)
+        {
+            var e = evaluations[k];
+            if (data.IntervalStart(k) < from || e.Status is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
+            var m = e.Measurements;
+            var sigma = evaluator.Sigmas(m);
+            var rec = Reconciliation.Reconcile(m, sigma, v =>
+            {
+                var d = evaluator.Duties(v, x.Hot.PressurePascals, x.Cold.PressurePascals, out _);
+                return d is null ? double.NaN : d.Value.Hot - d.Value.Cold;
+            }, iterations: 1);
+            if (rec.Sensitivities.Any(double.IsNaN)) continue;
+            if (rec.GrossError) fails++;
+            fs.Add(e.DutyHot - e.DutyCold);
+            js.Add(rec.Sensitivities);
+        }
+        if (fs.Count < 10) return new SensorCheck(fs.Count, 0, null, null, null, null, null, false, "too few samples in the last 14 days to check the sensors");
+        var fraction = fails / (double)fs.Count;
+        var total = fs.Sum(f => f * f);
+        var best = -1;
+        double bestR2 = double.NegativeInfinity, bestDelta = 0;
+        var r2s = new double[Measurement.Count];
+        var deltas = new double[Measurement.Count];
+        for (var i = 0; i < Measurement.Count; i++)
+        {
+            double fj = 0, jj = 0;
+            for (var s = 0; s < fs.Count; s++) { fj += fs[s] * js[s][i]; jj += js[s][i] * js[s][i]; }
+            if (!(jj > 0)) continue;
+            var delta = fj / jj;
+            var residual = 0.0;
+            for (var s = 0; s < fs.Count; s++) residual += Math.Pow(fs[s] - delta * js[s][i], 2);
+            var r2 = total > 0 ? 1 - residual / total : 0;
+            r2s[i] = r2;
+            deltas[i] = delta;
+            if (r2 > bestR2) { bestR2 = r2; best = i; bestDelta = delta; }
+        }
+        var tags = new[] { x.Hot.Flow, x.Hot.Inlet, x.Hot.Outlet, x.Cold.Flow, x.Cold.Inlet, x.Cold.Outlet };
+        var isFlow = best is Measurement.HotFlow or Measurement.ColdFlow;
+        // A bias δ explains the mismatch f when f ≈ J·δ; the measured value is then δ too high (the sensor reads δ above truth).
+        var typicalSigma = evaluator.Sigmas(evaluations[lastIndex].Measurements)[best];
+        var likely = fraction > 0.5 && bestR2 >= 0.8 && Math.Abs(bestDelta) > 2 * typicalSigma;
+        var unit = isFlow ? "kg/s" : "K";
+        // A stream's inlet and outlet enter the balance with opposite sensitivities: a bias on one looks like the opposite
+        // bias on the other, so every sensor explaining the mismatch about as well is named.
+        var suspects = Enumerable.Range(0, Measurement.Count).Where(i => r2s[i] >= bestR2 - 0.02).Select(i => $"{Measurement.Names[i]} {tags[i].Tag} ({deltas[i]:+0.##;-0.##} {(i is Measurement.HotFlow or Measurement.ColdFlow ? "kg/s" : "K")})").ToList();
+        var statement = likely
+            ? FormattableString.Invariant($"likely sensor fault: {string.Join(" or ", suspects)}; {fraction:P0} of the last 14 days fail the heat-balance test, and one bias explains {bestR2:P0} of the mismatch. Check the instrument before reading this as fouling.")
+            : FormattableString.Invariant($"no persistent sensor fault found ({fraction:P0} of samples fail the heat-balance test)");
+        return new SensorCheck(fs.Count, fraction, Measurement.Names[best], tags[best].Tag, bestDelta, unit, bestR2, likely, statement);
+    }
+}

@@ -1,0 +1,55 @@
+using FoulingWatch.Ingest.Configuration;
+
+namespace FoulingWatch.Analysis.BackCalculation;
+
+/// <summary>Clean overall U (W/(m²·K)) of an exchanger at given tube- and shell-side mass flows (kg/s).</summary>
+public interface ICleanUModel
+{
+    double CleanU(double tubeFlow, double shellFlow);
+    string Description { get; }
+}
+
+/// <summary>
+/// Clean U from the datasheet: the clean film resistance (1/U − wall) is split between the sides and each side
+/// is scaled as 1/h ∝ ṁ⁻ⁿ from its design flow: 1/U(ṁ_t, ṁ_s) = R_t·(ṁ_t,d/ṁ_t)^n_t + R_s·(ṁ_s,d/ṁ_s)^n_s + R_wall.
+/// </summary>
+/// <remarks>
+/// Tube side n = 0.8 by Dittus–Boelter (Nu ∝ Re^0.8); shell side n = 0.6 (common practice for cross-flow over
+/// tube banks, Nu ∝ Re^0.6). A condensing or evaporating side is taken as flow-independent (n = 0, common practice:
+/// condensing film coefficients vary only weakly with condensate load). Default split 50/50 when the datasheet
+/// gives no film coefficients.
+/// </remarks>
+public sealed class DatasheetCleanU : ICleanUModel
+{
+    private readonly DatasheetCleanReference _r;
+    private readonly double _rTube, _rShell, _nTube, _nShell;
+
+    public DatasheetCleanU(DatasheetCleanReference reference, bool tubePhaseChange, bool shellPhaseChange)
+    {
+        _r = reference;
+        var film = 1 / reference.CleanU - reference.WallResistance;
+        _rTube = reference.TubeShare * film;
+        _rShell = (1 - reference.TubeShare) * film;
+        _nTube = tubePhaseChange ? 0 : reference.TubeExponent;
+        _nShell = shellPhaseChange ? 0 : reference.ShellExponent;
+        Description = FormattableString.Invariant(
+            $"datasheet: U = {reference.CleanU:0.#} W/m2K at design flows, tube share {reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W");
+    }
+
+    public string Description { get; }
+
+    public double CleanU(double tubeFlow, double shellFlow) =>
+        1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) + _r.WallResistance);
+}
+
+/// <summary>Clean U from a Wilson-plot fit: 1/U = a + b·ṁ_t^−n_t + c·ṁ_s^−n_s (b or c may be zero when a side did not vary).</summary>
+public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube, double nShell, string description) : ICleanUModel
+{
+    public double A { get; } = a;
+    public double B { get; } = b;
+    public double C { get; } = c;
+    public string Description { get; } = description;
+
+    public double CleanU(double tubeFlow, double shellFlow) =>
+        1 / (A + B * Math.Pow(tubeFlow, -nTube) + C * Math.Pow(shellFlow, -nShell));
+}

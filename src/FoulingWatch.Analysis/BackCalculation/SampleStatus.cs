@@ -1,0 +1,42 @@
+namespace FoulingWatch.Analysis.BackCalculation;
+
+/// <summary>Whether an analysed instant was used, or why not.</summary>
+public enum SampleStatus
+{
+    Ok,
+    /// <summary>One of the six measurements is missing in the interval.</summary>
+    Missing,
+    /// <summary>A flow is below the configured fraction of design (or typical) flow.</summary>
+    Downtime,
+    /// <summary>Flows or inlet temperatures moved too much over the trailing steady-state window.</summary>
+    Unsteady,
+    /// <summary>Hot- and cold-side duties disagree beyond the configured tolerance.</summary>
+    Balance,
+    /// <summary>The terminal temperatures give no positive LMTD (a temperature cross or a cold side not warming).</summary>
+    TemperatureCross,
+    /// <summary>P lies beyond the arrangement's maximum: the LMTD correction factor is undefined.</summary>
+    CorrectionUndefined,
+    /// <summary>A fluid property model cannot evaluate the stream's temperatures or pressure.</summary>
+    PropertyRange,
+    /// <summary>A stream shows no heat transfer in the expected direction (hot side not cooling).</summary>
+    NoDuty,
+}
+
+public static class SampleStatusText
+{
+    public static string Key(this SampleStatus s) => s switch
+    {
+        SampleStatus.Ok => "ok",
+        SampleStatus.Missing => "missing",
+        SampleStatus.Downtime => "downtime",
+        SampleStatus.Unsteady => "unsteady",
+        SampleStatus.Balance => "balance",
+        SampleStatus.TemperatureCross => "temperature-cross",
+        SampleStatus.CorrectionUndefined => "correction-undefined",
+        SampleStatus.PropertyRange => "property-range",
+        SampleStatus.NoDuty => "no-duty",
+        _ => s.ToString().ToLowerInvariant(),
+    };
+
+    public static readonly SampleStatus[] All = Enum.GetValues<SampleStatus>();
+}

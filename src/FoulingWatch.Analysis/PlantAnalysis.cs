@@ -1,0 +1,55 @@
+using FoulingWatch.Analysis.BackCalculation;
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
+
+namespace FoulingWatch.Analysis;
+
+/// <summary>Current state of an exchanger: medians over the latest day of usable samples.</summary>
+public sealed record CurrentState(DateTimeOffset? LastUsable, int Samples, double UActual, double UClean, double FoulingResistance,
+    double FoulingResistanceSigma, double Cleanliness, double Duty, double LostDuty);
+
+/// <summary>Everything computed for one exchanger.</summary>
+public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts);
+
+/// <summary>Everything computed for the plant in one run.</summary>
+public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers);
+
+/// <summary>Runs the pipeline on a plant: ingest, then per exchanger back-calculation.</summary>
+public static class PlantAnalysis
+{
+    public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null)
+    {
+        var ingest = HistorianIngest.Run(config, progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction))));
+        var results = new List<ExchangerResult>();
+        for (var i = 0; i < config.Exchangers.Count; i++)
+        {
+            var x = config.Exchangers[i];
+            progress?.Report(($"back-calculating {x.Id}", i / (double)config.Exchangers.Count));
+            var history = BackCalculator.Run(x, ingest);
+            results.Add(new ExchangerResult(history, Current(history), StatusCounts(history)));
+        }
+        return new PlantResult(config, ingest, results);
+    }
+
+    public static IReadOnlyDictionary<string, int> StatusCounts(ExchangerHistory h)
+    {
+        var counts = SampleStatusText.All.ToDictionary(s => s.Key(), _ => 0);
+        foreach (var s in h.Samples) counts[s.Status.Key()]++;
+        return counts;
+    }
+
+    public static CurrentState Current(ExchangerHistory h)
+    {
+        var ok = h.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.FoulingResistance)).ToList();
+        if (ok.Count == 0) return new CurrentState(null, 0, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN);
+        var last = ok[^1].Timestamp;
+        var day = ok.Where(s => s.Timestamp > last - TimeSpan.FromDays(1)).ToList();
+        double Median(Func<SampleResult, double> f)
+        {
+            var v = day.Select(f).Where(double.IsFinite).Order().ToArray();
+            return v.Length == 0 ? double.NaN : v.Length % 2 == 1 ? v[v.Length / 2] : 0.5 * (v[v.Length / 2 - 1] + v[v.Length / 2]);
+        }
+        return new CurrentState(last, day.Count, Median(s => s.Evaluation.UActual), Median(s => s.Evaluation.UClean), Median(s => s.Evaluation.FoulingResistance),
+            Median(s => s.FoulingResistanceSigma), Median(s => s.Evaluation.Cleanliness), Median(s => s.Evaluation.Duty), Median(s => s.Evaluation.LostDuty));
+    }
+}

@@ -1,0 +1,58 @@
+using System.Text.Json;
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
+using FoulingWatch.Reporting.Results;
+
+namespace FoulingWatch.Cli;
+
+/// <summary><c>foulingwatch check</c>: validates configuration and data and shows what was used and rejected, without analysing.</summary>
+public static class CheckCommand
+{
+    public static int Run(string configPath, bool json, TextWriter output, TextWriter error)
+    {
+        var config = PlantConfigurationReader.Load(configPath);
+        var ingest = HistorianIngest.Run(config);
+        if (json)
+        {
+            output.WriteLine(JsonSerializer.Serialize(new
+            {
+                site = config.Site.Name,
+                grid = new { start = NumberText.Utc(ingest.GridStart), interval_s = ingest.Interval.TotalSeconds, intervals = ingest.IntervalCount },
+                files = ingest.Files.Select(f => new { file = Path.GetFileName(f.File), encoding = f.Encoding, delimiter = f.Delimiter.ToString(), decimal_separator = f.DecimalSeparator.ToString(), header_line = f.HeaderLine, unit_rows = f.MetadataRows, data_rows = f.DataRows }),
+                rows_of_other_tags = ingest.RowsOfOtherTags,
+                exchangers = config.Exchangers.Select(x => new
+                {
+                    id = x.Id,
+                    values = ResultWriter.Ledger(ingest.ExchangerLedger(x)),
+                    tags = x.Tags().Select(t => t.Tag).Distinct().Select(t => new { tag = t, ledger = ResultWriter.Ledger(ingest.TagLedgers[t]) }),
+                }),
+            }, ResultWriter.Json));
+            return FoulingWatchCommand.Success;
+        }
+        output.WriteLine($"Configuration {Path.GetFileName(configPath)}: valid; site {config.Site.Name}, {config.Exchangers.Count} exchanger(s).");
+        output.WriteLine($"Grid: {ingest.IntervalCount} intervals of {ingest.Interval.TotalMinutes:0.#} min from {ingest.GridStart:yyyy-MM-dd HH:mm} UTC.");
+        output.WriteLine();
+        var files = new TextTable("file", "encoding", "delim", "decimal", "header line", "unit rows", "data rows", "DST repeated hr");
+        foreach (var f in ingest.Files)
+            files.Add(Path.GetFileName(f.File), f.Encoding, f.Delimiter == '\t' ? "tab" : f.Delimiter.ToString(), f.DecimalSeparator.ToString(),
+                f.HeaderLine, f.MetadataRows, f.DataRows, $"{f.AmbiguousLocalTimesAsDaylight}+{f.AmbiguousLocalTimesAsStandard}");
+        output.Write(files);
+        if (ingest.RowsOfOtherTags > 0) output.WriteLine($"({ingest.RowsOfOtherTags} rows of tags not in the configuration were skipped.)");
+        output.WriteLine();
+        foreach (var x in config.Exchangers)
+        {
+            output.WriteLine($"{x.Id} — {x.Service}");
+            var t = new TextTable(["tag", "read", "used", .. RejectReasons.All.Select(r => r.Key()), "intervals ok", "bridged", "missing"]);
+            foreach (var tag in x.Tags().Select(r => r.Tag).Distinct())
+            {
+                var l = ingest.TagLedgers[tag];
+                t.Add([tag, l.Read, l.Used, .. l.Rejected.Cast<object>(), l.IntervalsWithData, l.IntervalsBridged, l.IntervalsMissing]);
+            }
+            output.Write(t);
+            foreach (var e in x.Tags().SelectMany(r => ingest.TagLedgers[r.Tag].Examples).Distinct().Take(6)) output.WriteLine("  " + e);
+            output.WriteLine();
+        }
+        return FoulingWatchCommand.Success;
+    }
+}
+
