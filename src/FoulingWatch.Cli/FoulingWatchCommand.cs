@@ -25,6 +25,14 @@ public static class FoulingWatchCommand
         check.SetAction(p => Guard(error, () => CheckCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(jsonOption), output, error)));
         root.Subcommands.Add(check);
 
+        var dataOption = new Option<FileInfo[]>("--data", "-d") { Description = "Historian CSV export(s) to take the tags from.", Required = true, AllowMultipleArgumentsPerToken = true };
+        var initOut = new Option<FileInfo>("--out", "-o") { Description = "Where to write the starter configuration.", DefaultValueFactory = _ => new FileInfo("plant.json") };
+        var init = new Command("init", "Write a starter plant configuration from the tags found in historian exports; every guess is marked CHECK.");
+        init.Options.Add(dataOption);
+        init.Options.Add(initOut);
+        init.SetAction(p => Guard(error, () => InitCommand.Run(p.GetValue(dataOption)!.Select(f => f.FullName).ToList(), p.GetValue(initOut)!.FullName, output, error)));
+        root.Subcommands.Add(init);
+
         var outOption = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the results (created if needed).", Required = true };
         var quietOption = new Option<bool>("--quiet", "-q") { Description = "Print nothing but errors." };
         var analyze = new Command("analyze", "Run the whole job on a plant: ingest, back-calculate U and fouling resistance, write results.");

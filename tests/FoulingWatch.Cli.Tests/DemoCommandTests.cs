@@ -1,15 +1,97 @@
-using FoulingWatch.Cli;
+using System.Text.Json;
 
 namespace FoulingWatch.Cli.Tests;
 
-public class DemoCommandTests
+public class CommandTests
 {
     [Fact]
     public void Unknown_command_is_a_usage_error()
+        => Assert.Equal(FoulingWatchCommand.UsageOrConfigurationError, SamplePlantCopy.Run("no-such-command").Code);
+
+    [Fact]
+    public void A_missing_configuration_file_is_a_configuration_error_naming_it()
     {
-        var output = new StringWriter();
-        var error = new StringWriter();
-        var code = FoulingWatchCommand.Run(["no-such-command"], output, error);
+        var (code, _, error) = SamplePlantCopy.Run("check", "--config", "/nonexistent/plant.json");
         Assert.Equal(FoulingWatchCommand.UsageOrConfigurationError, code);
+        Assert.Contains("'/nonexistent/plant.json' does not exist", error);
+    }
+
+    [Fact]
+    public void A_configuration_mistake_exits_with_1_and_names_the_key()
+    {
+        using var plant = new SamplePlantCopy();
+        File.WriteAllText(plant.ConfigPath, File.ReadAllText(plant.ConfigPath).Replace("\"180 m2\"", "\"180 m3\""));
+        var (code, _, error) = SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out("out"));
+        Assert.Equal(FoulingWatchCommand.UsageOrConfigurationError, code);
+        Assert.Contains("plant.json: exchangers[0].area: 'm3' is not an area unit; use m2, ft2.", error);
+    }
+
+    [Fact]
+    public void A_data_file_that_is_not_an_export_exits_with_2_and_names_the_file()
+    {
+        using var plant = new SamplePlantCopy();
+        File.WriteAllBytes(Path.Combine(plant.Directory, "kestrel-area1-2025-12_2026-05.csv.gz"), []);
+        var (code, _, error) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
+        Assert.Equal(FoulingWatchCommand.DataError, code);
+        Assert.Contains("kestrel-area1-2025-12_2026-05.csv.gz", error);
+    }
+
+    [Fact]
+    public void Check_prints_the_ledger_and_its_json_balances()
+    {
+        using var plant = new SamplePlantCopy();
+        var (code, output, _) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath, "--json");
+        Assert.Equal(0, code);
+        using var doc = JsonDocument.Parse(output);
+        foreach (var x in doc.RootElement.GetProperty("exchangers").EnumerateArray())
+        {
+            var v = x.GetProperty("values");
+            var rejected = v.GetProperty("rejected").EnumerateObject().Sum(p => p.Value.GetInt64());
+            Assert.Equal(v.GetProperty("read").GetInt64(), v.GetProperty("used").GetInt64() + rejected);
+        }
+    }
+
+    [Fact]
+    public void Analyze_writes_the_contract_columns_and_identical_inputs_give_identical_files()
+    {
+        using var plant = new SamplePlantCopy();
+        Assert.Equal(0, SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out("a"), "--quiet").Code);
+        Assert.Equal(0, SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out("b"), "--quiet").Code);
+        var header = File.ReadLines(Path.Combine(plant.Out("a"), "E-101", "timeseries.csv")).First();
+        Assert.StartsWith("timestamp,status,duty_W,duty_hot_W,duty_cold_W,u_actual_W_per_m2K,u_clean_W_per_m2K,rf_m2K_per_W,rf_sigma_m2K_per_W,cleanliness,lost_duty_W", header);
+        foreach (var f in Directory.GetFiles(plant.Out("a"), "*", SearchOption.AllDirectories))
+            Assert.Equal(File.ReadAllBytes(f), File.ReadAllBytes(f.Replace(plant.Out("a"), plant.Out("b"))));
+        var csv = File.ReadAllText(Path.Combine(plant.Out("a"), "E-101", "timeseries.csv"));
+        Assert.DoesNotContain("NaN", csv);
+        Assert.DoesNotContain("Infinity", csv);
+    }
+}
+
+public class InitCommandTests
+{
+    [Fact]
+    public void Init_writes_a_starter_configuration_that_check_accepts()
+    {
+        using var plant = new SamplePlantCopy();
+        var export = Path.Combine(plant.Directory, "kestrel-utilities-2025-12_2026-11.csv.gz");
+        var config = plant.Out("starter.json");
+        var (code, output, _) = SamplePlantCopy.Run("init", "--data", export, "--out", config);
+        Assert.Equal(0, code);
+        Assert.Contains("3 candidate exchanger(s) from 18 tags", output);
+        var text = File.ReadAllText(config);
+        // the unit row of the export gives the units: no guess for temperatures there
+        Assert.Contains("{ \"tag\": \"TI-2012\", \"unit\": \"degC\" }", text);
+        Assert.DoesNotContain("unit guessed from values", text.Split('\n').First(l => l.Contains("\"TI-2012\"")));
+        Assert.Contains("\"format\": \"dd.MM.yyyy HH:mm\"", text);
+        Assert.Equal(0, SamplePlantCopy.Run("check", "--config", config).Code);
+    }
+
+    [Fact]
+    public void Init_never_overwrites_a_configuration()
+    {
+        using var plant = new SamplePlantCopy();
+        var (code, _, error) = SamplePlantCopy.Run("init", "--data", Path.Combine(plant.Directory, "kestrel-utilities-2025-12_2026-11.csv.gz"), "--out", plant.ConfigPath);
+        Assert.Equal(FoulingWatchCommand.UsageOrConfigurationError, code);
+        Assert.Contains("exists already", error);
     }
 }

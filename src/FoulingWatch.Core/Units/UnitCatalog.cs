@@ -275,7 +275,7 @@ public static class UnitCatalog
 public sealed class UnknownUnitException : FormatException
 {
     public UnknownUnitException(string unit, Dimension dimension, IReadOnlyList<string> accepted)
-        : base($"'{unit}' is not a {Describe(dimension)} unit; use {string.Join(", ", accepted)}.")
+        : base($"'{unit}' is not {WithArticle(dimension)} unit; use {string.Join(", ", accepted)}.")
     {
         Unit = unit;
         Dimension = dimension;
@@ -283,6 +283,9 @@ public sealed class UnknownUnitException : FormatException
 
     public string Unit { get; }
     public Dimension Dimension { get; }
+
+    /// <summary>"a mass-flow", "an area": the dimension's name with its indefinite article.</summary>
+    public static string WithArticle(Dimension d) => ("aeiou".Contains(Describe(d)[0]) ? "an " : "a ") + Describe(d);
 
     public static string Describe(Dimension d) => d switch
     {

@@ -236,7 +236,7 @@ public static class PlantConfigurationReader
         if (slash < 0) { n.Error(key, $"'{text}' needs a unit after the currency, e.g. \"8.5 {currency}/GJ\"."); return null; }
         var cur = unit[..slash].Trim();
         if (!cur.Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' is in {cur}, but the site currency is {currency}; convert it or change economics.currency."); return null; }
-        if (!UnitCatalog.TryResolve(unit[(slash + 1)..], per, out var u)) { n.Error(key, $"'{unit[(slash + 1)..]}' is not a {UnknownUnitException.Describe(per)} unit; use {string.Join(", ", UnitCatalog.Accepted(per))}."); return null; }
+        if (!UnitCatalog.TryResolve(unit[(slash + 1)..], per, out var u)) { n.Error(key, $"'{unit[(slash + 1)..]}' is not {UnknownUnitException.WithArticle(per)} unit; use {string.Join(", ", UnitCatalog.Accepted(per))}."); return null; }
         return amount / u.Scale;
     }
 
@@ -586,7 +586,7 @@ public static class PlantConfigurationReader
             else
             {
                 var accepted = UnitCatalog.Accepted(dimension).Concat(dimension == Dimension.MassFlow ? UnitCatalog.Accepted(Dimension.VolumetricFlow).Select(v => v + " (with density)") : []);
-                n.Error("unit", $"'{unitText}' is not a {UnknownUnitException.Describe(dimension)} unit; use {string.Join(", ", accepted)}.");
+                n.Error("unit", $"'{unitText}' is not {UnknownUnitException.WithArticle(dimension)} unit; use {string.Join(", ", accepted)}.");
                 ok = false;
             }
         }

@@ -162,13 +162,16 @@ public static class FileDialectDetector
         for (var i = headerIndex + 1; i < lines.Count && n < 20; i++, n++)
         {
             var fields = SplitLine(lines[i].Text, delimiter);
-            var ts = tsColumn < fields.Count ? fields[tsColumn] : "";
+            var ts = tsColumn >= 0 && tsColumn < fields.Count ? fields[tsColumn] : "";
             if (TimestampParser.LooksLikeTimestamp(ts, source.Timestamp)) break;
+            // A row whose other fields are mostly numbers is data even when its timestamp format is not known yet.
+            var others = fields.Where((_, j) => j != tsColumn && fields[j].Length > 0).ToList();
+            if (others.Count > 0 && others.Count(LooksNumeric) * 2 > others.Count) break;
         }
         return n >= 20 ? 0 : n;
     }
 
-    internal static int TimestampColumnIndex(IReadOnlyList<string> header, HistorianSource source)
+    public static int TimestampColumnIndex(IReadOnlyList<string> header, HistorianSource source)
     {
         var name = source.Timestamp.Column;
         if (name is not null)
