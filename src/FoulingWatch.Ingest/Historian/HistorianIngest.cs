@@ -81,7 +81,7 @@ public static class HistorianIngest
         var done = 0;
         foreach (var source in config.Data.Sources)
         {
-            var signatures = new Dictionary<string, HashSet<long>>(StringComparer.Ordinal);
+            var signatures = new Dictionary<string, HashSet<long>[]>(StringComparer.Ordinal);
             foreach (var file in source.Files)
             {
                 var dialect = FileDialectDetector.Detect(file, source);
@@ -133,7 +133,8 @@ public static class HistorianIngest
         {
             Separator = dialect.Delimiter,
             HasHeader = true,
-            Encoding = dialect.Encoding,
+            // UTF-8 is the reader's native input; naming it would make the reader transcode.
+            Encoding = dialect.Encoding is UTF8Encoding ? null : dialect.Encoding,
             TrimWhitespace = true,
             TrackLineNumbers = true,
             FieldCountMismatch = CsvFieldCountHandling.Allow,
@@ -143,7 +144,7 @@ public static class HistorianIngest
     }
 
     private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>> signatures, Dictionary<string, List<string>> foundIn,
+        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>[]> signatures, Dictionary<string, List<string>> foundIn,
         long interval, long? windowStart, long? windowEnd)
     {
         var header = dialect.Header;
@@ -158,9 +159,24 @@ public static class HistorianIngest
             columns.Add((i, c));
             (foundIn.TryGetValue(c.Reference.Tag, out var l) ? l : foundIn[c.Reference.Tag] = []).Add(file);
         }
+        // Number parsing, not reading, is the cost: the columns are shared out between the cores, each worker reading
+        // the file once for its own columns. Workers share nothing but the file, so the result does not depend on timing.
+        var workers = Math.Clamp(Math.Min(Environment.ProcessorCount, columns.Count / 8), 1, 8);
         var signature = string.Join("\u0001", columns.Select(c => c.Channel.Reference.Tag).Order(StringComparer.Ordinal));
-        if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = [];
+        if (!signatures.TryGetValue(signature, out var seenSets) || seenSets.Length != workers)
+            signatures[signature] = seenSets = Enumerable.Range(0, workers).Select(_ => new HashSet<long>()).ToArray();
+        // Contiguous blocks, so that the ledgers and bins one worker updates do not share cache lines with another's.
+        var groups = Enumerable.Range(0, workers).Select(w => columns.Skip(w * columns.Count / workers).Take((w + 1) * columns.Count / workers - w * columns.Count / workers).ToArray()).ToArray();
+        var outcomes = new (long Rows, long Daylight, long Standard)[workers];
+        Parallel.For(0, workers, new ParallelOptions { MaxDegreeOfParallelism = workers }, w =>
+            outcomes[w] = ReadWideColumns(file, source, dialect, config, groups[w], seenSets[w], tsColumn, interval, windowStart, windowEnd));
+        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
+            outcomes[0].Rows, outcomes[0].Daylight, outcomes[0].Standard, header.ToList());
+    }
 
+    private static (long Rows, long Daylight, long Standard) ReadWideColumns(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
+        (int Index, Channel Channel)[] columns, HashSet<long> seen, int tsColumn, long interval, long? windowStart, long? windowEnd)
+    {
         var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
         var decimalByte = (byte)dialect.DecimalSeparator;
         var markers = MarkerSet(source);
@@ -194,8 +210,7 @@ public static class HistorianIngest
             foreach (var (index, c) in columns)
                 AddValue(c, reader, index, bin, decimalByte, markers, name, dialect.HeaderLine - 1);
         }
-        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
-            rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
+        return (rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard);
     }
 
     private static FileReport ReadLong(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
@@ -265,37 +280,37 @@ public static class HistorianIngest
     private static Dictionary<string, string> MarkerSet(HistorianSource source) =>
         source.Markers.Distinct(StringComparer.OrdinalIgnoreCase).ToDictionary(m => m, m => m, StringComparer.OrdinalIgnoreCase);
 
+    // The hot path: no closures here (a lambda capturing the parameters would allocate on every call); rejections go
+    // to RejectValue, which may allocate.
     private static void AddValue(Channel c, CsvReader reader, int column, long bin, byte decimalByte, Dictionary<string, string> markers,
         string file, long lineOffset)
     {
         var span = reader.GetSpan(column);
-        if (span.IsEmpty)
+        if (!span.IsEmpty && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
+            && consumed == span.Length && double.IsFinite(reading))
         {
-            c.Ledger.CountRejected(RejectReason.Empty, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.Empty, null));
-            return;
-        }
-        if (!csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte) || consumed != span.Length || !double.IsFinite(reading))
-        {
-            var text = Encoding.UTF8.GetString(span).Trim();
-            if (markers.TryGetValue(text, out var marker))
+            var si = c.Reference.ToSi(reading);
+            if (si >= c.Reference.RangeMinimum && si <= c.Reference.RangeMaximum)
             {
-                c.Ledger.CountMarker(marker);
-                c.Ledger.CountRejected(RejectReason.TextMarker, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.TextMarker, text));
+                c.Ledger.CountUsed();
+                c.Bins.Add(bin, si);
+                return;
             }
-            else
-                c.Ledger.CountRejected(RejectReason.NotANumber, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.NotANumber, text));
+            RejectValue(c, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, lineOffset + reader.LineNumber, column);
             return;
         }
-        var si = c.Reference.ToSi(reading);
-        if (si < c.Reference.RangeMinimum || si > c.Reference.RangeMaximum)
+        if (span.IsEmpty) { RejectValue(c, RejectReason.Empty, null, file, lineOffset + reader.LineNumber, column); return; }
+        var text = Encoding.UTF8.GetString(span).Trim();
+        if (markers.TryGetValue(text, out var marker))
         {
-            c.Ledger.CountRejected(RejectReason.OutOfRange, () => Example(file, lineOffset + reader.LineNumber, column + 1, c.Reference.Tag, RejectReason.OutOfRange,
-                reading.ToString(CultureInfo.InvariantCulture)));
-            return;
+            c.Ledger.CountMarker(marker);
+            RejectValue(c, RejectReason.TextMarker, text, file, lineOffset + reader.LineNumber, column);
         }
-        c.Ledger.CountUsed();
-        c.Bins.Add(bin, si);
+        else RejectValue(c, RejectReason.NotANumber, text, file, lineOffset + reader.LineNumber, column);
     }
+
+    private static void RejectValue(Channel c, RejectReason reason, string? text, string file, long line, int column) =>
+        c.Ledger.CountRejected(reason, () => Example(file, line, column + 1, c.Reference.Tag, reason, text));
 
     /// <summary>One rejection described for a person: where, what, and what to do.</summary>
     public static string Example(string file, long line, int column, string tag, RejectReason reason, string? text) => reason switch
