@@ -1,4 +1,5 @@
 using FoulingWatch.Analysis.BackCalculation;
+using FoulingWatch.Analysis.Trends;
 using FoulingWatch.Ingest.Configuration;
 using FoulingWatch.Ingest.Historian;
 
@@ -9,7 +10,7 @@ public sealed record CurrentState(DateTimeOffset? LastUsable, int Samples, doubl
     double FoulingResistanceSigma, double Cleanliness, double Duty, double LostDuty);
 
 /// <summary>Everything computed for one exchanger.</summary>
-public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts);
+public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend);
 
 /// <summary>Everything computed for the plant in one run.</summary>
 public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers);
@@ -26,7 +27,7 @@ public static class PlantAnalysis
             var x = config.Exchangers[i];
             progress?.Report(($"back-calculating {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest);
-            results.Add(new ExchangerResult(history, Current(history), StatusCounts(history)));
+            results.Add(new ExchangerResult(history, Current(history), StatusCounts(history), TrendAnalysis.Run(history)));
         }
         return new PlantResult(config, ingest, results);
     }

@@ -22,19 +22,28 @@ public static class AnalyzeCommand
         }
         if (quiet) return FoulingWatchCommand.Success;
         output.WriteLine($"{config.Site.Name}: {result.Exchangers.Count} exchangers, {result.Ingest.IntervalCount} intervals of {result.Ingest.Interval.TotalMinutes:0} min from {result.Ingest.GridStart:yyyy-MM-dd}.");
-        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "cleanliness", "Rf m2K/W", "± σ", "lost duty kW", "note");
+        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "cleanliness", "Rf m2K/W", "± σ", "lost duty kW", "model", "limit reached", "note");
         foreach (var x in result.Exchangers)
         {
             var c = x.Current;
             var note = x.History.Refusal ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}" : "");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance, "0.000000"), F(c.FoulingResistanceSigma, "0.000000"),
-                F(c.LostDuty / 1000, "0"), note);
+                F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast),
+                (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note);
         }
         output.Write(t);
         output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, <exchanger>/timeseries.csv)");
         return FoulingWatchCommand.Success;
     }
+
+    private static string LimitText(Analysis.Trends.LimitForecast? f) => f switch
+    {
+        null => "—",
+        { AlreadyReached: true } => "reached",
+        { BeyondHorizon: true } => "beyond horizon",
+        _ => $"{f.Date:yyyy-MM-dd} ({(f.Low is { } lo ? lo.ToString("yyyy-MM") : "now")}…{(f.High is { } hi ? hi.ToString("yyyy-MM") : "later")})",
+    };
 
     private static string F(double v, string format) => double.IsFinite(v) ? v.ToString(format, CultureInfo.InvariantCulture) : "—";
 

@@ -373,8 +373,8 @@ public static class PlantConfigurationReader
             if (m is null) continue;
             var date = ReadDate(m, "date", site, required: true);
             var action = m.String("action") ?? "cleaned";
-            if (!new[] { "cleaned", "inspected", "repaired", "bypassed", "returned" }.Contains(action.ToLowerInvariant()))
-                m.Error("action", $"'{action}' is not an action; use \"cleaned\", \"inspected\", \"repaired\", \"bypassed\" or \"returned\".");
+            if (!new[] { "cleaned", "not-cleaned", "inspected", "repaired", "bypassed", "returned" }.Contains(action.ToLowerInvariant()))
+                m.Error("action", $"'{action}' is not an action; use \"cleaned\", \"not-cleaned\" (suppresses a detected cleaning), \"inspected\", \"repaired\", \"bypassed\" or \"returned\".");
             var note = m.String("note");
             m.Done();
             if (date is not null) maintenance.Add(new MaintenanceEvent(date.Value, action, note));

@@ -1,6 +1,7 @@
 using System.Text.Encodings.Web;
 using System.Text.Json;
 using FoulingWatch.Analysis;
+using FoulingWatch.Analysis.Trends;
 using FoulingWatch.Ingest.Historian;
 
 namespace FoulingWatch.Reporting.Results;
@@ -24,7 +25,8 @@ public static class ResultWriter
     {
         Directory.CreateDirectory(outDirectory);
         foreach (var x in result.Exchangers)
-            TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History);
+            TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
+                x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList());
         AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
     }
 
@@ -78,6 +80,7 @@ public static class ResultWriter
                 bias_unit = x.History.SensorCheck.BiasUnit,
                 fraction_failing_balance_test = NumberText.Json(x.History.SensorCheck.FractionFailingGlobalTest),
             },
+            trend = Trend(x.Trend, r.Configuration.Site.TimeZone),
             samples = new
             {
                 analysed = x.History.Samples.Count,
@@ -101,6 +104,73 @@ public static class ResultWriter
             }),
             rows_of_other_tags = r.Ingest.RowsOfOtherTags,
             tags = r.Ingest.TagLedgers.OrderBy(kv => kv.Key, StringComparer.Ordinal).Select(kv => new { tag = kv.Key, ledger = Ledger(kv.Value) }),
+        },
+    };
+
+    /// <summary>Dates of cleanings, cycles and forecasts as the site's local calendar date.</summary>
+    private static string? Date(DateTimeOffset? t, TimeZoneInfo zone) =>
+        t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture) : null;
+
+    public static object Trend(TrendResult t, TimeZoneInfo zone) => new
+    {
+        daily_points = t.Daily.Count,
+        cleanings = t.Cleanings.Select(c => new
+        {
+            date = Date(c.Cleaning.Date, zone),
+            source = c.Cleaning.Source == CleaningSource.Logged ? "logged" : "detected",
+            evidence = c.Cleaning.Source == CleaningSource.Detected
+                ? new { rf_before_m2K_per_W = NumberText.Json(c.Cleaning.RfBefore!.Value), rf_after_m2K_per_W = NumberText.Json(c.Cleaning.RfAfter!.Value), drop_sigma_m2K_per_W = NumberText.Json(c.Cleaning.DropSigma!.Value) }
+                : null,
+            rf_before_m2K_per_W = c.RfBefore is { } b ? NumberText.Json(b) : null,
+            rf_after_m2K_per_W = c.RfAfter is { } a ? NumberText.Json(a) : null,
+            fraction_removed = c.FractionRemoved is { } f ? NumberText.Json(f) : null,
+            rate_before_m2K_per_W_per_day = c.RateBefore is { } rb ? NumberText.Json(rb) : null,
+            rate_after_m2K_per_W_per_day = c.RateAfter is { } ra ? NumberText.Json(ra) : null,
+        }),
+        cycles = t.Cycles.Select(c => new
+        {
+            start = Date(c.Start, zone),
+            end = Date(c.End, zone),
+            start_known = c.StartKnown,
+            start_source = c.StartSource switch { CleaningSource.Logged => "logged", CleaningSource.Detected => "detected", _ => "data start" },
+            days_used = c.Points.Count,
+            outliers_rejected = c.OutliersRejected,
+            refusal = c.Refusal,
+            chosen = c.Chosen?.Model.Key,
+            models = c.Candidates.Select(m => new
+            {
+                model = m.Model.Key,
+                formula = m.Model.Formula,
+                source = m.Model.Source,
+                parameters = m.Fit is null ? null : m.Model.ParameterNames.Select((n, i) => (n, i)).ToDictionary(p => p.n, p => NumberText.Json(m.Fit.Parameters[p.i])),
+                standard_errors = m.Fit is null ? null : m.Model.ParameterNames.Select((n, i) => (n, i)).ToDictionary(p => p.n, p => NumberText.Json(m.Fit.StandardErrors[p.i])),
+                aicc = NumberText.Json(m.Aicc),
+                r_squared = NumberText.Json(m.RSquared),
+                skipped = m.Skipped,
+            }),
+        }),
+        threshold_model = t.ThresholdModelNote,
+        rate = t.Rate is null ? null : new
+        {
+            rf_rate_m2K_per_W_per_day = NumberText.Json(t.Rate.Rate),
+            rf_rate_sigma_m2K_per_W_per_day = NumberText.Json(t.Rate.Sigma),
+            recent_rate_m2K_per_W_per_day = t.Rate.RecentRate is { } r ? NumberText.Json(r) : null,
+            earlier_rate_m2K_per_W_per_day = t.Rate.EarlierRate is { } e ? NumberText.Json(e) : null,
+            rate_jump_alert = t.Rate.Jump,
+            statement = t.Rate.Statement,
+        },
+        forecast = t.Forecast is null ? null : new
+        {
+            limit_m2K_per_W = NumberText.Json(t.Forecast.Limit),
+            limit_source = t.Forecast.LimitSource,
+            date = Date(t.Forecast.Date, zone),
+            interval_90_low = Date(t.Forecast.Low, zone),
+            interval_90_high = Date(t.Forecast.High, zone),
+            already_reached = t.Forecast.AlreadyReached,
+            beyond_horizon = t.Forecast.BeyondHorizon,
+            fraction_beyond_horizon = NumberText.Json(t.Forecast.FractionBeyondHorizon),
+            horizon = Date(t.Forecast.Horizon, zone),
+            statement = t.Forecast.Statement,
         },
     };
 

@@ -1,0 +1,198 @@
+using MathNet.Numerics.LinearAlgebra;
+using MathNet.Numerics.Optimization;
+
+namespace FoulingWatch.Analysis.Trends;
+
+/// <summary>A fouling-growth law Rf(t), t in days since the cycle start.</summary>
+public abstract class FoulingModel
+{
+    public abstract string Key { get; }
+    public abstract string Formula { get; }
+    public abstract string Source { get; }
+    public abstract string[] ParameterNames { get; }
+    public abstract double Value(ReadOnlySpan<double> p, double t);
+    /// <summary>∂Rf/∂p at t.</summary>
+    public abstract void Gradient(ReadOnlySpan<double> p, double t, Span<double> g);
+    /// <summary>dRf/dt at t.</summary>
+    public abstract double Rate(ReadOnlySpan<double> p, double t);
+    /// <summary>Starting points for the least-squares fit, from the data.</summary>
+    public abstract IEnumerable<double[]> StartingPoints(double[] t, double[] y);
+    public virtual double[]? LowerBounds(double[] t, double[] y) => null;
+    /// <summary>Days t at which Rf(t) reaches the limit; +∞ when it never does; NaN for parameters outside the model's domain.</summary>
+    public abstract double CrossingTime(ReadOnlySpan<double> p, double limit);
+    public virtual double[]? UpperBounds(double[] t, double[] y) => null;
+}
+
+/// <summary>Linear fouling Rf = R0 + a·t (constant deposition rate; e.g. Epstein's classification of fouling curves, 1983).</summary>
+public sealed class LinearFouling : FoulingModel
+{
+    public override string Key => "linear";
+    public override string Formula => "Rf = R0 + a·t";
+    public override string Source => "linear growth (constant net deposition rate)";
+    public override string[] ParameterNames => ["R0_m2K_per_W", "a_m2K_per_W_per_day"];
+    public override double Value(ReadOnlySpan<double> p, double t) => p[0] + p[1] * t;
+    public override void Gradient(ReadOnlySpan<double> p, double t, Span<double> g) { g[0] = 1; g[1] = t; }
+    public override double Rate(ReadOnlySpan<double> p, double t) => p[1];
+    public override double CrossingTime(ReadOnlySpan<double> p, double limit) => limit <= p[0] ? 0 : p[1] > 0 ? (limit - p[0]) / p[1] : double.PositiveInfinity;
+
+    public override IEnumerable<double[]> StartingPoints(double[] t, double[] y)
+    {
+        double mt = t.Average(), my = y.Average(), sxy = 0, sxx = 0;
+        for (var i = 0; i < t.Length; i++) { sxy += (t[i] - mt) * (y[i] - my); sxx += (t[i] - mt) * (t[i] - mt); }
+        var a = sxx > 0 ? sxy / sxx : 0;
+        yield return [my - a * mt, a];
+    }
+}
+
+/// <summary>Asymptotic fouling Rf = R0 + R∞·(1 − e^(−t/τ)) (Kern &amp; Seaton, Br. Chem. Eng. 4 (1959) 258–262).</summary>
+public sealed class AsymptoticFouling : FoulingModel
+{
+    public override string Key => "asymptotic";
+    public override string Formula => "Rf = R0 + Rinf·(1 − exp(−t/tau))";
+    public override string Source => "Kern & Seaton (1959)";
+    public override string[] ParameterNames => ["R0_m2K_per_W", "Rinf_m2K_per_W", "tau_days"];
+    public override double Value(ReadOnlySpan<double> p, double t) => p[0] + p[1] * (1 - Math.Exp(-t / p[2]));
+
+    public override void Gradient(ReadOnlySpan<double> p, double t, Span<double> g)
+    {
+        var e = Math.Exp(-t / p[2]);
+        g[0] = 1;
+        g[1] = 1 - e;
+        g[2] = -p[1] * t / (p[2] * p[2]) * e;
+    }
+
+    public override double Rate(ReadOnlySpan<double> p, double t) => p[1] / p[2] * Math.Exp(-t / p[2]);
+    public override double CrossingTime(ReadOnlySpan<double> p, double limit) =>
+        !(p[2] > 0) || p[1] < 0 ? double.NaN : limit <= p[0] ? 0 : limit - p[0] >= p[1] ? double.PositiveInfinity : -p[2] * Math.Log(1 - (limit - p[0]) / p[1]);
+
+    public override IEnumerable<double[]> StartingPoints(double[] t, double[] y)
+    {
+        var span = Math.Max(1, t.Max() - t.Min());
+        var rise = Math.Max(Math.Abs(y[^1] - y[0]), 1e-6);
+        foreach (var f in new[] { 0.2, 0.5, 1.0, 3.0 })
+            yield return [y[0], rise * (1 + f), span * f];
+    }
+
+    // MathNet's bounded LM needs finite bounds: ±1 m2K/W is far beyond any real fouling resistance.
+    public override double[] LowerBounds(double[] t, double[] y) => [-1.0, 0, 0.05];
+    public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, 1e5];
+}
+
+/// <summary>Falling-rate fouling Rf = R0 + a·tⁿ with 0 &lt; n &lt; 1 (power-law growth whose rate falls with time).</summary>
+public sealed class FallingRateFouling : FoulingModel
+{
+    public override string Key => "falling-rate";
+    public override string Formula => "Rf = R0 + a·t^n, 0 < n < 1";
+    public override string Source => "falling-rate (power-law) fouling";
+    public override string[] ParameterNames => ["R0_m2K_per_W", "a_m2K_per_W_per_day_n", "n"];
+    public override double Value(ReadOnlySpan<double> p, double t) => p[0] + p[1] * Math.Pow(Math.Max(t, 0), p[2]);
+
+    public override void Gradient(ReadOnlySpan<double> p, double t, Span<double> g)
+    {
+        var tn = Math.Pow(Math.Max(t, 0), p[2]);
+        g[0] = 1;
+        g[1] = tn;
+        g[2] = t > 0 ? p[1] * tn * Math.Log(t) : 0;
+    }
+
+    public override double Rate(ReadOnlySpan<double> p, double t) => t > 0 ? p[1] * p[2] * Math.Pow(t, p[2] - 1) : double.PositiveInfinity;
+    public override double CrossingTime(ReadOnlySpan<double> p, double limit) =>
+        !(p[2] > 0) || p[2] > 1.5 ? double.NaN : limit <= p[0] ? 0 : p[1] > 0 ? Math.Pow((limit - p[0]) / p[1], 1 / p[2]) : double.PositiveInfinity;
+
+    public override IEnumerable<double[]> StartingPoints(double[] t, double[] y)
+    {
+        foreach (var n in new[] { 0.3, 0.5, 0.8 })
+        {
+            var x = t.Select(v => Math.Pow(Math.Max(v, 0), n)).ToArray();
+            double mx = x.Average(), my = y.Average(), sxy = 0, sxx = 0;
+            for (var i = 0; i < x.Length; i++) { sxy += (x[i] - mx) * (y[i] - my); sxx += (x[i] - mx) * (x[i] - mx); }
+            var a = sxx > 0 ? Math.Max(sxy / sxx, 1e-12) : 1e-9;
+            yield return [my - a * mx, a, n];
+        }
+    }
+
+    public override double[] LowerBounds(double[] t, double[] y) => [-1.0, 0, 0.02];
+    public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, 0.999];
+}
+
+/// <summary>A least-squares fit of a model: parameters, covariance s²(JᵀWJ)⁻¹, weighted residual sum of squares.</summary>
+public sealed record FitResult(double[] Parameters, double[] StandardErrors, Matrix<double> Covariance, double WeightedResidualSumOfSquares, int Observations)
+{
+    public int DegreesOfFreedom => Observations - Parameters.Length;
+    public double ResidualStandardDeviation => Math.Sqrt(WeightedResidualSumOfSquares / Math.Max(1, DegreesOfFreedom));
+}
+
+/// <summary>Weighted nonlinear least squares by MathNet's Levenberg–Marquardt minimiser, best of several starting points.</summary>
+public static class LeastSquares
+{
+    public static FitResult? Fit(FoulingModel model, double[] t, double[] y, double[] weights, IEnumerable<double[]>? starts = null)
+    {
+        var x = Vector<double>.Build.DenseOfArray(t);
+        var obs = Vector<double>.Build.DenseOfArray(y);
+        var w = Vector<double>.Build.DenseOfArray(weights);
+        var k = model.ParameterNames.Length;
+        Vector<double> F(Vector<double> p, Vector<double> xs)
+        {
+            var pa = p.ToArray();
+            return Vector<double>.Build.Dense(xs.Count, i => model.Value(pa, xs[i]));
+        }
+        Matrix<double> J(Vector<double> p, Vector<double> xs)
+        {
+            var pa = p.ToArray();
+            var m = Matrix<double>.Build.Dense(xs.Count, k);
+            Span<double> g = stackalloc double[k];
+            for (var i = 0; i < xs.Count; i++)
+            {
+                model.Gradient(pa, xs[i], g);
+                for (var j = 0; j < k; j++) m[i, j] = g[j];
+            }
+            return m;
+        }
+        var lower = model.LowerBounds(t, y);
+        var upper = model.UpperBounds(t, y);
+        FitResult? best = null;
+        foreach (var start in starts ?? model.StartingPoints(t, y))
+        {
+            if (lower is not null) for (var j = 0; j < k; j++) start[j] = Math.Max(start[j], lower[j] + 1e-12 * Math.Max(1, Math.Abs(lower[j])));
+            if (upper is not null) for (var j = 0; j < k; j++) start[j] = Math.Min(start[j], upper[j] - 1e-12 * Math.Max(1, Math.Abs(upper[j])));
+            try
+            {
+                var objective = ObjectiveFunction.NonlinearModel(F, J, x, obs, w);
+                var solver = new LevenbergMarquardtMinimizer(initialMu: 1e-3, gradientTolerance: 1e-18, stepTolerance: 1e-18, functionTolerance: 1e-22, maximumIterations: 2000);
+                var r = solver.FindMinimum(objective, Vector<double>.Build.DenseOfArray(start),
+                    lower is null ? null : Vector<double>.Build.DenseOfArray(lower), upper is null ? null : Vector<double>.Build.DenseOfArray(upper));
+                var p = r.MinimizingPoint.ToArray();
+                if (p.Any(v => !double.IsFinite(v))) continue;
+                var fit = Finish(model, t, y, weights, p);
+                if (fit is not null && (best is null || fit.WeightedResidualSumOfSquares < best.WeightedResidualSumOfSquares)) best = fit;
+            }
+            catch (Exception ex) when (ex is ArithmeticException or ArgumentException or InvalidOperationException or MaximumIterationsException) { }
+        }
+        return best;
+    }
+
+    /// <summary>Covariance s²·(JᵀWJ)⁻¹ at the solution with s² = RSS_w/(n − k) (the usual estimate; as NIST StRD certifies).</summary>
+    private static FitResult? Finish(FoulingModel model, double[] t, double[] y, double[] w, double[] p)
+    {
+        var n = t.Length;
+        var k = p.Length;
+        var jtj = Matrix<double>.Build.Dense(k, k);
+        Span<double> g = stackalloc double[k];
+        var rss = 0.0;
+        for (var i = 0; i < n; i++)
+        {
+            var r = y[i] - model.Value(p, t[i]);
+            rss += w[i] * r * r;
+            model.Gradient(p, t[i], g);
+            for (var a = 0; a < k; a++)
+            for (var b = 0; b < k; b++) jtj[a, b] += w[i] * g[a] * g[b];
+        }
+        if (n <= k) return null;
+        Matrix<double> inverse;
+        try { inverse = jtj.Inverse(); } catch (ArgumentException) { return null; }
+        if (!inverse.Enumerate().All(double.IsFinite)) return null;
+        var cov = inverse * (rss / (n - k));
+        var se = Enumerable.Range(0, k).Select(i => Math.Sqrt(Math.Max(0, cov[i, i]))).ToArray();
+        return new FitResult(p, se, cov, rss, n);
+    }
+}

@@ -1,0 +1,306 @@
+using FoulingWatch.Analysis.BackCalculation;
+using FoulingWatch.Core.Exchangers;
+using FoulingWatch.Core.Quantities;
+using FoulingWatch.Ingest.Configuration;
+using MathNet.Numerics.LinearAlgebra;
+
+namespace FoulingWatch.Analysis.Trends;
+
+/// <summary>One candidate model fitted to a cycle.</summary>
+public sealed record ModelCandidate(FoulingModel Model, FitResult? Fit, double Aicc, double RSquared, string? Skipped);
+
+/// <summary>A fouling cycle [Start, End) between cleanings with its fitted models; the chosen one has the lowest AICc.</summary>
+public sealed record FoulingCycle(
+    DateTimeOffset Start, DateTimeOffset End, bool StartKnown, CleaningSource? StartSource, IReadOnlyList<DailyPoint> Points,
+    IReadOnlyList<ModelCandidate> Candidates, ModelCandidate? Chosen, int OutliersRejected, string? Refusal)
+{
+    public double Days(DateTimeOffset t) => (t - Start).TotalDays;
+}
+
+/// <summary>What a cleaning achieved: Rf just before and after, the fraction removed, and the fouling rates of the cycles either side.</summary>
+public sealed record CleaningEffect(Cleaning Cleaning, double? RfBefore, double? RfAfter, double? FractionRemoved, double? RateBefore, double? RateAfter);
+
+/// <summary>When the fouling limit is reached, from the chosen model of the current cycle, with a 90 % interval from the parameter covariance.</summary>
+public sealed record LimitForecast(double Limit, string LimitSource, DateTimeOffset? Date, DateTimeOffset? Low, DateTimeOffset? High, bool AlreadyReached,
+    bool BeyondHorizon, double FractionBeyondHorizon, DateTimeOffset Horizon, string Statement);
+
+/// <summary>The current fouling rate and whether it has jumped.</summary>
+public sealed record FoulingRate(double Rate, double Sigma, double? RecentRate, double? EarlierRate, bool Jump, string Statement);
+
+public sealed record TrendResult(IReadOnlyList<DailyPoint> Daily, IReadOnlyList<FoulingCycle> Cycles, IReadOnlyList<CleaningEffect> Cleanings,
+    LimitForecast? Forecast, FoulingRate? Rate, string? ThresholdModelNote)
+{
+    /// <summary>The chosen model's Rf at a time, or NaN where no model fits.</summary>
+    public double Fitted(DateTimeOffset t)
+    {
+        foreach (var c in Cycles)
+            if (t >= c.Start && t < c.End && c.Chosen?.Fit is { } f)
+                return c.Chosen.Model.Value(f.Parameters, c.Days(t));
+        return double.NaN;
+    }
+}
+
+/// <summary>Cycles, fits, forecasts and rate alerts of one exchanger from its back-calculated history.</summary>
+public static class TrendAnalysis
+{
+    public const int MinimumDays = 7;
+    public const double IntervalLow = 0.05, IntervalHigh = 0.95;
+    public static readonly TimeSpan Horizon = TimeSpan.FromDays(3 * 365);
+    public const double RateJumpFactor = 2.0;
+    public const int RecentDays = 28;
+    public const int BootstrapDraws = 2000;
+
+    public static readonly FoulingModel[] Models = [new LinearFouling(), new AsymptoticFouling(), new FallingRateFouling()];
+
+    public const string ThresholdNote =
+        "threshold (deposition minus removal, Ebert & Panchal 1995 family) model not fitted: it needs tube velocity or Reynolds number and film temperature, which the configuration does not give";
+
+    public static TrendResult Run(ExchangerHistory history)
+    {
+        var x = history.Exchanger;
+        var daily = DailyFouling.Resample(history.Samples);
+        var logged = x.Maintenance.Where(m => m.IsCleaning).Select(m => m.Date).ToList();
+        var suppressed = x.Maintenance.Where(m => m.Action.Equals("not-cleaned", StringComparison.OrdinalIgnoreCase)).Select(m => m.Date).ToList();
+        var detected = CleaningDetection.Detect(daily, logged, suppressed);
+        var cleanings = logged.Select(d => new Cleaning(d, CleaningSource.Logged, null, null, null, null)).Concat(detected).OrderBy(c => c.Date).ToList();
+
+        var cycles = new List<FoulingCycle>();
+        if (daily.Count > 0)
+        {
+            var dataEnd = daily[^1].Day + TimeSpan.FromDays(1);
+            var boundaries = cleanings.Where(c => c.Date < dataEnd).ToList();
+            var firstDay = daily[0].Day;
+            if (boundaries.Count == 0 || boundaries[0].Date > firstDay)
+                cycles.Add(FitCycle(firstDay, boundaries.Count > 0 ? boundaries[0].Date : dataEnd, false, null, daily));
+            for (var i = 0; i < boundaries.Count; i++)
+            {
+                var end = i + 1 < boundaries.Count ? boundaries[i + 1].Date : dataEnd;
+                if (end <= firstDay) continue;
+                cycles.Add(FitCycle(boundaries[i].Date, end, true, boundaries[i].Source, daily));
+            }
+        }
+        var effects = cleanings.Select(c => Effect(c, daily, cycles)).ToList();
+        var current = cycles.Count > 0 ? cycles[^1] : null;
+        var seed = StableSeed(x.Id);
+        var forecast = current is null ? null : Forecast(history, current, seed);
+        var rate = current is null ? null : Rate(current);
+        return new TrendResult(daily, cycles, effects, forecast, rate, ThresholdNote);
+    }
+
+    private static FoulingCycle FitCycle(DateTimeOffset start, DateTimeOffset end, bool known, CleaningSource? source, List<DailyPoint> daily)
+    {
+        var points = daily.Where(d => d.Day >= start && d.Day < end).ToList();
+        if (points.Count < MinimumDays)
+            return new FoulingCycle(start, end, known, source, points, [], null, 0,
+                $"too short to fit: {points.Count} usable days, at least {MinimumDays} needed");
+        var used = points;
+        var outliers = 0;
+        List<ModelCandidate> candidates = [];
+        for (var pass = 0; pass < 3; pass++)
+        {
+            candidates = FitAll(start, used);
+            var best = candidates.Where(c => c.Fit is not null).MinBy(c => c.Aicc);
+            if (best?.Fit is null) break;
+            // Iterative rejection of points more than 4 standard residuals off the best model.
+            var s = best.Fit.ResidualStandardDeviation;
+            var keep = used.Where(p => Math.Abs(p.FoulingResistance - best.Model.Value(best.Fit.Parameters, T(start, p))) / Sigma(p) <= 4 * Math.Max(1, s)).ToList();
+            if (keep.Count == used.Count || keep.Count < MinimumDays) break;
+            outliers += used.Count - keep.Count;
+            used = keep;
+        }
+        var chosen = candidates.Where(c => c.Fit is not null).MinBy(c => c.Aicc);
+        string? refusal = null;
+        var linear = candidates.FirstOrDefault(c => c.Model is LinearFouling)?.Fit;
+        var medianSigma = DailyFouling.Median(used.Select(p => p.Sigma).Order().ToArray());
+        var range = used.Max(p => p.FoulingResistance) - used.Min(p => p.FoulingResistance);
+        if (linear is not null && Math.Abs(linear.Parameters[1]) < 2 * linear.StandardErrors[1] && range < 4 * Math.Max(medianSigma, 1e-6))
+            refusal = FormattableString.Invariant($"too flat to fit a fouling law: no significant trend (slope {linear.Parameters[1]:G3} ± {linear.StandardErrors[1]:G2} m2K/W per day); Rf stays near {linear.Parameters[0] + linear.Parameters[1] * T(start, used[^1]) / 2:G3} m2K/W");
+        else if (chosen is null) refusal = "no model could be fitted";
+        return new FoulingCycle(start, end, known, source, used, candidates, refusal is null ? chosen : null, outliers, refusal);
+    }
+
+    private static double T(DateTimeOffset start, DailyPoint p) => (p.Day - start).TotalDays + 0.5;
+    private static double Sigma(DailyPoint p) => Math.Max(p.Sigma, 1e-7);
+
+    private static List<ModelCandidate> FitAll(DateTimeOffset start, List<DailyPoint> points)
+    {
+        var t = points.Select(p => T(start, p)).ToArray();
+        var y = points.Select(p => p.FoulingResistance).ToArray();
+        var w = points.Select(p => 1 / (Sigma(p) * Sigma(p))).ToArray();
+        var list = new List<ModelCandidate>();
+        foreach (var m in Models)
+        {
+            var fit = LeastSquares.Fit(m, t, y, w);
+            if (fit is null) { list.Add(new ModelCandidate(m, null, double.PositiveInfinity, double.NaN, "the fit did not converge")); continue; }
+            var n = t.Length;
+            var k = m.ParameterNames.Length + 1; // + the residual variance
+            var aicc = n * Math.Log(fit.WeightedResidualSumOfSquares / n) + 2 * k + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1) : double.PositiveInfinity);
+            var mean = y.Zip(w).Sum(p => p.First * p.Second) / w.Sum();
+            var tss = y.Zip(w).Sum(p => p.Second * (p.First - mean) * (p.First - mean));
+            list.Add(new ModelCandidate(m, fit, aicc, tss > 0 ? 1 - fit.WeightedResidualSumOfSquares / tss : double.NaN, null));
+        }
+        return list;
+    }
+
+    private static CleaningEffect Effect(Cleaning c, List<DailyPoint> daily, List<FoulingCycle> cycles)
+    {
+        var before = daily.Where(d => d.Day < c.Date).TakeLast(3).Select(d => d.FoulingResistance).Order().ToArray();
+        var after = daily.Where(d => d.Day >= c.Date).Take(3).Select(d => d.FoulingResistance).Order().ToArray();
+        double? b = before.Length > 0 ? DailyFouling.Median(before) : null;
+        double? a = after.Length > 0 ? DailyFouling.Median(after) : null;
+        double? fraction = b is > 0 && a is not null ? (b - a) / b : null;
+        var previous = cycles.LastOrDefault(cy => cy.End <= c.Date.AddDays(1) && cy.Start < c.Date);
+        var next = cycles.FirstOrDefault(cy => cy.Start == c.Date);
+        return new CleaningEffect(c, b, a, fraction, LinearRate(previous), LinearRate(next));
+    }
+
+    private static double? LinearRate(FoulingCycle? c) =>
+        c?.Candidates.FirstOrDefault(m => m.Model is LinearFouling)?.Fit?.Parameters[1];
+
+    /// <summary>The Rf limit: configured directly, or from a minimum duty or cold-outlet limit turned into Rf at typical recent conditions.</summary>
+    public static (double Limit, string Source)? Limit(ExchangerHistory history)
+    {
+        var x = history.Exchanger;
+        if (x.Limits.FoulingResistance is { } rf) return (rf, "configured fouling-resistance limit");
+        var recent = history.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.UClean)).TakeLast(30 * 144).ToList();
+        if (recent.Count == 0 || (x.Limits.MinimumDuty is null && x.Limits.MinimumColdOutlet is null)) return null;
+        double Med(Func<SampleResult, double> f) => DailyFouling.Median(recent.Select(f).Order().ToArray());
+        var ch = Med(s => s.Evaluation.HotCapacityRate);
+        var cc = Med(s => s.Evaluation.ColdCapacityRate);
+        var thi = Temperature.FromKelvin(Med(s => s.Evaluation.Measurements[Measurement.HotInlet]));
+        var tci = Temperature.FromKelvin(Med(s => s.Evaluation.Measurements[Measurement.ColdInlet]));
+        var uc = Med(s => s.Evaluation.UClean);
+        Func<double, double> metric = x.Limits.MinimumDuty is not null
+            ? u => Rating.Rate(x.Arrangement, u * x.Area, ch, cc, thi, tci).Duty
+            : u => Rating.Rate(x.Arrangement, u * x.Area, ch, cc, thi, tci).ColdOutlet.Kelvin;
+        var target = x.Limits.MinimumDuty ?? x.Limits.MinimumColdOutlet!.Value;
+        if (metric(uc) <= target) return null;
+        double lo = 1e-3, hi = uc;
+        for (var i = 0; i < 100; i++)
+        {
+            var mid = 0.5 * (lo + hi);
+            if (metric(mid) < target) lo = mid; else hi = mid;
+        }
+        var what = x.Limits.MinimumDuty is not null ? "minimum duty" : "minimum cold outlet temperature";
+        return (1 / hi - 1 / uc, $"{what} turned into an Rf limit at the median conditions of the last 30 days");
+    }
+
+    private static LimitForecast? Forecast(ExchangerHistory history, FoulingCycle cycle, int seed)
+    {
+        var f = ForecastCore(history, cycle, seed);
+        if (f is null) return null;
+        var lastData = history.Samples.Count > 0 ? history.Samples[^1].Timestamp : cycle.End;
+        var lastUsable = cycle.Points[^1].Day;
+        return (lastData - lastUsable).TotalDays > 7
+            ? f with { Statement = f.Statement + FormattableString.Invariant($"; note: the last usable day is {lastUsable:yyyy-MM-dd}, {(lastData - lastUsable).TotalDays:0} days before the end of the data — see the sample statuses and the sensor check") }
+            : f;
+    }
+
+    private static LimitForecast? ForecastCore(ExchangerHistory history, FoulingCycle cycle, int seed)
+    {
+        var limit = Limit(history);
+        if (limit is null || cycle.Chosen?.Fit is not { } fit) return null;
+        var (L, source) = limit.Value;
+        var model = cycle.Chosen.Model;
+        var now = cycle.Points[^1].Day + TimeSpan.FromDays(1);
+        var tNow = cycle.Days(now);
+        var horizon = now + Horizon;
+        var tHorizon = cycle.Days(horizon);
+        var central = model.CrossingTime(fit.Parameters, L);
+        var draws = Bootstrap(model, fit, L, seed);
+        var beyond = draws.Count(d => d > tHorizon) / (double)Math.Max(1, draws.Count);
+        var sorted = draws.Order().ToArray();
+        double Q(double q) => sorted.Length == 0 ? double.NaN : sorted[(int)Math.Clamp(Math.Round(q * (sorted.Length - 1)), 0, sorted.Length - 1)];
+        DateTimeOffset? At(double t) => double.IsFinite(t) && t <= tHorizon ? cycle.Start + TimeSpan.FromDays(t) : null;
+        var reached = central <= tNow;
+        var statement = reached
+            ? FormattableString.Invariant($"limit {L:G3} m2K/W already reached on about {cycle.Start + TimeSpan.FromDays(Math.Max(0, central)):yyyy-MM-dd} by the {model.Key} fit")
+            : central > tHorizon
+                ? FormattableString.Invariant($"limit {L:G3} m2K/W not reached within the {Horizon.TotalDays / 365:0}-year horizon ({model.Key} fit)")
+                : FormattableString.Invariant($"limit {L:G3} m2K/W reached on {At(central):yyyy-MM-dd} (90 % interval {(At(Q(IntervalLow)) is { } lo ? lo.ToString("yyyy-MM-dd") : "now")} to {(At(Q(IntervalHigh)) is { } hi ? hi.ToString("yyyy-MM-dd") : "beyond the horizon")}; {model.Key} fit)");
+        return new LimitForecast(L, source, At(central), At(Q(IntervalLow)), At(Q(IntervalHigh)), reached, central > tHorizon, beyond, horizon, statement);
+    }
+
+    /// <summary>Parametric bootstrap: crossing times for parameter vectors drawn from N(p̂, Cov), draws outside the model's domain redrawn.</summary>
+    /// <remarks>Parameter uncertainty only (the interval is for when the fitted law reaches the limit); 2000 draws, seeded per exchanger so results repeat.</remarks>
+    public static List<double> Bootstrap(FoulingModel model, FitResult fit, double limit, int seed)
+    {
+        var k = fit.Parameters.Length;
+        Matrix<double> lower;
+        try { lower = fit.Covariance.Cholesky().Factor; }
+        catch (ArgumentException) { lower = Matrix<double>.Build.DenseDiagonal(k, k, i => fit.StandardErrors[i]); }
+        var rng = new Random(seed);
+        var list = new List<double>(BootstrapDraws);
+        var z = new double[k];
+        var p = new double[k];
+        var attempts = 0;
+        while (list.Count < BootstrapDraws && attempts++ < BootstrapDraws * 20)
+        {
+            for (var i = 0; i < k; i++) z[i] = Math.Sqrt(-2 * Math.Log(1 - rng.NextDouble())) * Math.Cos(2 * Math.PI * rng.NextDouble());
+            for (var i = 0; i < k; i++)
+            {
+                p[i] = fit.Parameters[i];
+                for (var j = 0; j <= i; j++) p[i] += lower[i, j] * z[j];
+            }
+            var t = model.CrossingTime(p, limit);
+            if (!double.IsNaN(t)) list.Add(t);
+        }
+        return list;
+    }
+
+    private static FoulingRate? Rate(FoulingCycle cycle)
+    {
+        if (cycle.Chosen?.Fit is not { } fit) return null;
+        var model = cycle.Chosen.Model;
+        var tNow = cycle.Days(cycle.Points[^1].Day) + 0.5;
+        var rate = model.Rate(fit.Parameters, tNow);
+        var k = fit.Parameters.Length;
+        var g = new double[k];
+        for (var i = 0; i < k; i++)
+        {
+            var h = Math.Max(1e-8, 1e-4 * Math.Abs(fit.Parameters[i]));
+            var up = (double[])fit.Parameters.Clone();
+            var down = (double[])fit.Parameters.Clone();
+            up[i] += h;
+            down[i] -= h;
+            g[i] = (model.Rate(up, tNow) - model.Rate(down, tNow)) / (2 * h);
+        }
+        var variance = 0.0;
+        for (var i = 0; i < k; i++)
+        for (var j = 0; j < k; j++) variance += g[i] * fit.Covariance[i, j] * g[j];
+        var sigma = Math.Sqrt(Math.Max(0, variance));
+
+        var cut = cycle.Points[^1].Day - TimeSpan.FromDays(RecentDays);
+        var recent = cycle.Points.Where(p => p.Day > cut).ToList();
+        var earlier = cycle.Points.Where(p => p.Day <= cut).ToList();
+        double? recentRate = null, earlierRate = null;
+        var jump = false;
+        if (recent.Count >= 10 && earlier.Count >= 10)
+        {
+            var r = Slope(cycle.Start, recent);
+            var e = Slope(cycle.Start, earlier);
+            recentRate = r?.Parameters[1];
+            earlierRate = e?.Parameters[1];
+            jump = r is not null && e is not null && r.Parameters[1] > 2 * r.StandardErrors[1]
+                   && r.Parameters[1] > RateJumpFactor * Math.Max(e.Parameters[1], e.StandardErrors[1]);
+        }
+        var statement = FormattableString.Invariant($"fouling rate now {rate * 30:G3} ± {sigma * 30:G2} m2K/W per 30 days ({model.Key} fit)") +
+                        (jump ? FormattableString.Invariant($"; ALERT: the last {RecentDays} days foul at {recentRate * 30:G3} per 30 days, more than {RateJumpFactor:0.#}x the cycle's earlier {earlierRate * 30:G3}") : "");
+        return new FoulingRate(rate, sigma, recentRate, earlierRate, jump, statement);
+    }
+
+    private static FitResult? Slope(DateTimeOffset start, List<DailyPoint> points) =>
+        LeastSquares.Fit(new LinearFouling(), points.Select(p => T(start, p)).ToArray(), points.Select(p => p.FoulingResistance).ToArray(),
+            points.Select(p => 1 / (Sigma(p) * Sigma(p))).ToArray());
+
+    /// <summary>FNV-1a hash of the id: a seed that is the same on every run and machine (string.GetHashCode is not).</summary>
+    public static int StableSeed(string id)
+    {
+        unchecked
+        {
+            var h = 2166136261u;
+            foreach (var c in id) { h ^= c; h *= 16777619u; }
+            return (int)(h & 0x7FFFFFFF);
+        }
+    }
+}
