@@ -33,6 +33,7 @@ public class LeastSquaresTests
         }
         public override double Rate(ReadOnlySpan<double> p, double t) => p[0] * p[1] * Math.Exp(-p[1] * t);
         public override IEnumerable<double[]> StartingPoints(double[] t, double[] y) => [];
+        public override double CrossingTime(ReadOnlySpan<double> p, double limit) => _asymptotic.CrossingTime([0, p[0], 1 / p[1]], limit);
     }
 
     // Source: NIST StRD nonlinear regression, Misra1a (certified values to 11 digits). Both certified start points must
