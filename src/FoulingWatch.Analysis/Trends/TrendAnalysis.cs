@@ -110,10 +110,11 @@ public static class TrendAnalysis
         }
         var chosen = candidates.Where(c => c.Fit is not null).MinBy(c => c.Aicc);
         string? refusal = null;
-        var linear = candidates.FirstOrDefault(c => c.Model is LinearFouling)?.Fit;
-        var medianSigma = DailyFouling.Median(used.Select(p => p.Sigma).Order().ToArray());
-        var range = used.Max(p => p.FoulingResistance) - used.Min(p => p.FoulingResistance);
-        if (linear is not null && Math.Abs(linear.Parameters[1]) < 2 * linear.StandardErrors[1] && range < 4 * Math.Max(medianSigma, 1e-6))
+        var linearCandidate = candidates.FirstOrDefault(c => c.Model is LinearFouling);
+        var linear = linearCandidate?.Fit;
+        // Too flat: the slope is not significant (2 standard errors) and no curved law beats the line clearly (ΔAICc < 10).
+        if (linear is not null && Math.Abs(linear.Parameters[1]) < 2 * linear.StandardErrors[1]
+            && (chosen is null || linearCandidate!.Aicc - chosen.Aicc < 10))
             refusal = FormattableString.Invariant($"too flat to fit a fouling law: no significant trend (slope {linear.Parameters[1]:G3} ± {linear.StandardErrors[1]:G2} m2K/W per day); Rf stays near {linear.Parameters[0] + linear.Parameters[1] * T(start, used[^1]) / 2:G3} m2K/W");
         else if (chosen is null) refusal = "no model could be fitted";
         return new FoulingCycle(start, end, known, source, used, candidates, refusal is null ? chosen : null, outliers, refusal);
