@@ -1,5 +1,6 @@
 using FoulingWatch.Analysis.BackCalculation;
 using FoulingWatch.Analysis.Trends;
+using FoulingWatch.Analysis.Economics;
 using FoulingWatch.Ingest.Configuration;
 using FoulingWatch.Ingest.Historian;
 
@@ -10,10 +11,10 @@ public sealed record CurrentState(DateTimeOffset? LastUsable, int Samples, doubl
     double FoulingResistanceSigma, double Cleanliness, double Duty, double LostDuty);
 
 /// <summary>Everything computed for one exchanger.</summary>
-public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend);
+public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend, ExchangerEconomics Economics);
 
 /// <summary>Everything computed for the plant in one run.</summary>
-public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers);
+public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers, FleetCleaningPlan Plan);
 
 /// <summary>Runs the pipeline on a plant: ingest, then per exchanger back-calculation.</summary>
 public static class PlantAnalysis
@@ -27,9 +28,12 @@ public static class PlantAnalysis
             var x = config.Exchangers[i];
             progress?.Report(($"back-calculating {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest);
-            results.Add(new ExchangerResult(history, Current(history), StatusCounts(history), TrendAnalysis.Run(history)));
+            var current = Current(history);
+            var trend = TrendAnalysis.Run(history);
+            results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));
         }
-        return new PlantResult(config, ingest, results);
+        var plan = FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(), config.ShutdownWindows);
+        return new PlantResult(config, ingest, results, plan);
     }
 
     public static IReadOnlyDictionary<string, int> StatusCounts(ExchangerHistory h)

@@ -33,8 +33,43 @@ public static class AnalyzeCommand
                 (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note);
         }
         output.Write(t);
-        output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, <exchanger>/timeseries.csv)");
+        output.WriteLine();
+        WritePlan(result, output);
+        output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, plan.csv, <exchanger>/timeseries.csv)");
         return FoulingWatchCommand.Success;
+    }
+
+    /// <summary><c>foulingwatch plan</c>: the same run as analyze (the plan needs the whole pipeline), printing the ranked plan.</summary>
+    public static int RunPlan(string configPath, string outDirectory, bool json, bool quiet, TextWriter output, TextWriter error)
+    {
+        var config = PlantConfigurationReader.Load(configPath);
+        var result = PlantAnalysis.Run(config);
+        ResultWriter.Write(result, outDirectory);
+        if (json) output.WriteLine(System.Text.Json.JsonSerializer.Serialize(ResultWriter.Plan(result), ResultWriter.Json));
+        else if (!quiet)
+        {
+            WritePlan(result, output);
+            output.WriteLine($"Plan: {Path.Combine(Path.GetFullPath(outDirectory), "plan.csv")}");
+        }
+        return FoulingWatchCommand.Success;
+    }
+
+    public static void WritePlan(PlantResult result, TextWriter output)
+    {
+        var currency = result.Configuration.Economics.Currency;
+        output.WriteLine($"Cleaning plan ({result.Plan.Method}); money in {currency}:");
+        var p = new TextTable("rank", "exchanger", "window", "starts", "net saving", "90 % interval", "payback d", "CO2 avoided t", "fouling now /d", "note");
+        foreach (var e in result.Plan.Entries)
+        {
+            var econ = result.Exchangers.First(x => x.History.Exchanger.Id == e.ExchangerId).Economics;
+            p.Add(e.Rank, e.ExchangerId, e.Window?.Name ?? "—", e.Window is { } w ? TimeZoneInfo.ConvertTime(w.Start, result.Configuration.Site.TimeZone).ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "—",
+                e.Option is { } o ? o.Saving.ToString("N0", CultureInfo.InvariantCulture) : "—",
+                e.Option is { } o2 ? $"{o2.SavingLow.ToString("N0", CultureInfo.InvariantCulture)} … {o2.SavingHigh.ToString("N0", CultureInfo.InvariantCulture)}" : "—",
+                e.Option is { } o3 ? F(o3.PaybackDays, "0") : "—", e.Option is { } o4 ? F(o4.Co2Avoided / 1000, "0") : "—",
+                F(econ.CostPerDayNow, "N0"), e.Note.Length > 70 ? e.Note[..70] + "…" : e.Note);
+        }
+        output.Write(p);
+        output.WriteLine($"Total saving of the plan: {result.Plan.TotalSaving.ToString("N0", CultureInfo.InvariantCulture)} {currency}.");
     }
 
     private static string LimitText(Analysis.Trends.LimitForecast? f) => f switch

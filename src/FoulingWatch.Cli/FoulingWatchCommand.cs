@@ -44,6 +44,15 @@ public static class FoulingWatchCommand
             p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
         root.Subcommands.Add(analyze);
 
+        var plan = new Command("plan", "Cost of fouling and the cleaning plan: which exchanger to clean in which shutdown window, and what it saves.");
+        plan.Options.Add(configOption);
+        plan.Options.Add(outOption);
+        plan.Options.Add(jsonOption);
+        plan.Options.Add(quietOption);
+        plan.SetAction(p => Guard(error, () => AnalyzeCommand.RunPlan(p.GetValue(configOption)!.FullName, p.GetValue(outOption)!.FullName,
+            p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
+        root.Subcommands.Add(plan);
+
         var demoOut = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the demo results.", DefaultValueFactory = _ => new DirectoryInfo("foulingwatch-demo") };
         var demo = new Command("demo", "Run the whole job on the bundled sample plant (Kestrel Bay, invented) and say where the results are.");
         demo.Options.Add(demoOut);

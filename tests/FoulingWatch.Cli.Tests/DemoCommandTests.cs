@@ -95,3 +95,21 @@ public class InitCommandTests
         Assert.Contains("exists already", error);
     }
 }
+
+public class PlanCommandTests
+{
+    [Fact]
+    public void Plan_writes_plan_csv_and_prints_the_ranked_table()
+    {
+        using var plant = new SamplePlantCopy(windowStart: "2026-06-01T00:00:00Z", windowEnd: "2026-09-01T00:00:00Z");
+        var (code, output, _) = SamplePlantCopy.Run("plan", "--config", plant.ConfigPath, "--out", plant.Out("p"));
+        Assert.Equal(0, code);
+        Assert.Contains("Cleaning plan (exact: transportation problem", output);
+        var lines = File.ReadAllLines(Path.Combine(plant.Out("p"), "plan.csv"));
+        Assert.Equal("rank,exchanger,service,window,window_start,window_end,net_saving,net_saving_90_low,net_saving_90_high,fouling_cost_until_window,payback_days,co2_avoided_t,cost_per_day_now,currency,note", lines[0]);
+        Assert.Equal(7, lines.Length); // header + six exchangers
+        var json = SamplePlantCopy.Run("plan", "--config", plant.ConfigPath, "--out", plant.Out("q"), "--json");
+        using var doc = System.Text.Json.JsonDocument.Parse(json.Output);
+        Assert.Equal(6, doc.RootElement.GetProperty("entries").GetArrayLength());
+    }
+}

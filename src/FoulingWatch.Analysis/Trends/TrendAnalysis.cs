@@ -224,29 +224,32 @@ public static class TrendAnalysis
 
     /// <summary>Parametric bootstrap: crossing times for parameter vectors drawn from N(p̂, Cov), draws outside the model's domain redrawn.</summary>
     /// <remarks>Parameter uncertainty only (the interval is for when the fitted law reaches the limit); 2000 draws, seeded per exchanger so results repeat.</remarks>
-    public static List<double> Bootstrap(FoulingModel model, FitResult fit, double limit, int seed)
+    public static List<double> Bootstrap(FoulingModel model, FitResult fit, double limit, int seed) =>
+        ParameterDraws(model, fit, seed, BootstrapDraws).Select(p => model.CrossingTime(p, limit)).ToList();
+
+    /// <summary>Parameter vectors drawn from N(p̂, Cov) by its Cholesky factor (diagonal if not positive definite), outside the model's domain redrawn.</summary>
+    public static IEnumerable<double[]> ParameterDraws(FoulingModel model, FitResult fit, int seed, int count)
     {
         var k = fit.Parameters.Length;
         Matrix<double> lower;
         try { lower = fit.Covariance.Cholesky().Factor; }
         catch (ArgumentException) { lower = Matrix<double>.Build.DenseDiagonal(k, k, i => fit.StandardErrors[i]); }
         var rng = new Random(seed);
-        var list = new List<double>(BootstrapDraws);
         var z = new double[k];
-        var p = new double[k];
-        var attempts = 0;
-        while (list.Count < BootstrapDraws && attempts++ < BootstrapDraws * 20)
+        var produced = 0;
+        for (var attempt = 0; produced < count && attempt < count * 20; attempt++)
         {
             for (var i = 0; i < k; i++) z[i] = Math.Sqrt(-2 * Math.Log(1 - rng.NextDouble())) * Math.Cos(2 * Math.PI * rng.NextDouble());
+            var p = new double[k];
             for (var i = 0; i < k; i++)
             {
                 p[i] = fit.Parameters[i];
                 for (var j = 0; j <= i; j++) p[i] += lower[i, j] * z[j];
             }
-            var t = model.CrossingTime(p, limit);
-            if (!double.IsNaN(t)) list.Add(t);
+            if (double.IsNaN(model.CrossingTime(p, 1.0))) continue;
+            produced++;
+            yield return p;
         }
-        return list;
     }
 
     private static FoulingRate? Rate(FoulingCycle cycle)

@@ -2,6 +2,7 @@ using System.Text.Encodings.Web;
 using System.Text.Json;
 using FoulingWatch.Analysis;
 using FoulingWatch.Analysis.Trends;
+using FoulingWatch.Analysis.Economics;
 using FoulingWatch.Ingest.Historian;
 
 namespace FoulingWatch.Reporting.Results;
@@ -28,6 +29,7 @@ public static class ResultWriter
             TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
                 x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList());
         AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
+        PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
     }
 
     /// <summary>A file-system-safe folder name for an exchanger id.</summary>
@@ -81,6 +83,7 @@ public static class ResultWriter
                 fraction_failing_balance_test = NumberText.Json(x.History.SensorCheck.FractionFailingGlobalTest),
             },
             trend = Trend(x.Trend, r.Configuration.Site.TimeZone),
+            economics = Economics(x.Economics, r.Configuration.Site.TimeZone),
             samples = new
             {
                 analysed = x.History.Samples.Count,
@@ -88,6 +91,8 @@ public static class ResultWriter
             },
             ledger = Ledger(r.Ingest.ExchangerLedger(x.History.Exchanger)),
         }),
+        energy_audit = Audit(r),
+        cleaning_plan = Plan(r),
         quality_ledger = new
         {
             files = r.Ingest.Files.Select(f => new
@@ -173,6 +178,88 @@ public static class ResultWriter
             statement = t.Forecast.Statement,
         },
     };
+
+    /// <summary>The fleet cleaning plan section of summary.json.</summary>
+    public static object Plan(PlantResult r) => new
+    {
+        method = r.Plan.Method,
+        currency = r.Configuration.Economics.Currency,
+        total_saving = NumberText.Json(r.Plan.TotalSaving),
+        windows = r.Configuration.ShutdownWindows.Select(w => new { name = w.Name, start = Date(w.Start, r.Configuration.Site.TimeZone), end = Date(w.End, r.Configuration.Site.TimeZone), capacity = w.Capacity }),
+        entries = r.Plan.Entries.Select(p => new
+        {
+            rank = p.Rank,
+            exchanger = p.ExchangerId,
+            window = p.Window?.Name,
+            window_start = Date(p.Window?.Start, r.Configuration.Site.TimeZone),
+            net_saving = p.Option is null ? null : NumberText.Json(p.Option.Saving),
+            net_saving_90_low = p.Option is null ? null : NumberText.Json(p.Option.SavingLow),
+            net_saving_90_high = p.Option is null ? null : NumberText.Json(p.Option.SavingHigh),
+            payback_days = p.Option is null ? null : NumberText.Json(p.Option.PaybackDays),
+            co2_avoided_t = p.Option is null ? null : NumberText.Json(p.Option.Co2Avoided / 1000),
+            note = p.Note,
+        }),
+    };
+
+    private static object? Totals(CostTotals? t) => t is null ? null : new
+    {
+        from = NumberText.Utc(t.From),
+        to = NumberText.Utc(t.To),
+        lost_heat_GJ = NumberText.Json(t.LostEnergy / 1e9),
+        lost_heat_MWh = NumberText.Json(t.LostEnergy / 3.6e9),
+        fuel_GJ = NumberText.Json(t.Fuel / 1e9),
+        co2_t = NumberText.Json(t.Co2 / 1000),
+        cost = NumberText.Json(t.Money),
+    };
+
+    public static object Economics(ExchangerEconomics e, TimeZoneInfo zone) => new
+    {
+        pricing = e.Pricing?.Description,
+        basis = e.Pricing?.Basis,
+        currency = e.Pricing?.Currency,
+        not_priced = e.NotPriced,
+        cost_per_day_now = NumberText.Json(e.CostPerDayNow),
+        co2_t_per_day_now = NumberText.Json(e.Co2PerDayNow / 1000),
+        current_cycle = Totals(e.CurrentCycle),
+        last_12_months = Totals(e.LastYear),
+        whole_record = Totals(e.WholeRecord),
+        optimal_interval_days = e.OptimalIntervalDays is { } d ? NumberText.Json(d) : null,
+        optimal_average_cost_per_day = e.OptimalCostRatePerDay is { } c ? NumberText.Json(c) : null,
+        unconstrained_optimum = Date(e.UnconstrainedOptimum, zone),
+        windows = e.Windows.Select(o => new
+        {
+            window = o.Window.Name,
+            start = Date(o.Window.Start, zone),
+            fouling_cost_until = NumberText.Json(o.FoulingCostUntil),
+            total_cost_to_horizon = NumberText.Json(o.TotalCost),
+            net_saving = NumberText.Json(o.Saving),
+            net_saving_90_low = NumberText.Json(o.SavingLow),
+            net_saving_90_high = NumberText.Json(o.SavingHigh),
+            payback_days = NumberText.Json(o.PaybackDays),
+            co2_avoided_t = NumberText.Json(o.Co2Avoided / 1000),
+        }),
+        recommended_window = e.Recommended?.Window.Name,
+        statement = e.Statement,
+    };
+
+    /// <summary>Energy audit over the last 12 months of data: lost heat recovery, fuel, CO2 and money per exchanger and for the site.</summary>
+    public static object Audit(PlantResult r)
+    {
+        var rows = r.Exchangers.Where(x => x.Economics.LastYear is not null).Select(x => (x.History.Exchanger.Id, T: x.Economics.LastYear!)).ToList();
+        return new
+        {
+            period = rows.Count > 0 ? new { from = NumberText.Utc(rows[0].T.From), to = NumberText.Utc(rows[0].T.To) } : null,
+            site = new
+            {
+                lost_heat_GJ = NumberText.Json(rows.Sum(x => x.T.LostEnergy) / 1e9),
+                lost_heat_MWh = NumberText.Json(rows.Sum(x => x.T.LostEnergy) / 3.6e9),
+                fuel_GJ = NumberText.Json(rows.Sum(x => x.T.Fuel) / 1e9),
+                co2_t = NumberText.Json(rows.Sum(x => x.T.Co2) / 1000),
+                cost = NumberText.Json(rows.Sum(x => x.T.Money)),
+            },
+            exchangers = rows.Select(x => new { id = x.Id, totals = Totals(x.T) }),
+        };
+    }
 
     public static object Ledger(TagLedger l) => new
     {

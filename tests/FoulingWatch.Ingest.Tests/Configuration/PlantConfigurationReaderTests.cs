@@ -132,3 +132,34 @@ public class PlantConfigurationReaderTests
         Assert.Equal(0.08, e.Co2PricePerKilogram!.Value, 12);
     }
 }
+
+public class EconomicsConfigurationTests
+{
+    private static EconomicsSettings Read(string economics)
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }");
+        File.WriteAllText(plant.ConfigPath, File.ReadAllText(plant.ConfigPath).Replace("\"data\":", $"\"economics\": {economics},\n \"data\":"));
+        return PlantConfigurationReader.Load(plant.ConfigPath).Economics;
+    }
+
+    // Energy units by NIST SP 811: MWh = 3.6e9 J; MMBtu = 1.05505585262e9 J.
+    [Theory]
+    [InlineData("34.2 EUR/MWh", 34.2 / 3.6e9)]
+    [InlineData("10 EUR/MMBtu", 10 / 1.05505585262e9)]
+    [InlineData("9 EUR/GJ", 9e-9)]
+    public void Fuel_prices_convert_per_joule(string price, double perJoule)
+        => Assert.Equal(perJoule, Read($"{{ \"currency\": \"EUR\", \"fuelPrice\": \"{price}\" }}").FuelPricePerJoule!.Value, perJoule * 1e-12);
+
+    [Fact]
+    public void A_price_in_another_currency_is_refused()
+    {
+        var ex = Assert.Throws<ConfigurationException>(() => Read("{ \"currency\": \"EUR\", \"fuelPrice\": \"9 USD/GJ\" }"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("economics.fuelPrice", e.Path);
+        Assert.Equal("'9 USD/GJ' is in USD, but the site currency is EUR; convert it or change economics.currency.", e.Message);
+    }
+
+    [Fact]
+    public void An_explicit_CO2_factor_overrides_the_fuel_default()
+        => Assert.Equal(70_000e-12, Read("{ \"currency\": \"EUR\", \"fuel\": \"natural-gas\", \"co2Factor\": \"70 t/TJ\" }").Co2KilogramsPerJoule!.Value, 1e-20);
+}

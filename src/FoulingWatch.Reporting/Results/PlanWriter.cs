@@ -1,0 +1,39 @@
+using System.Text;
+using FoulingWatch.Analysis;
+
+namespace FoulingWatch.Reporting.Results;
+
+/// <summary>Writes plan.csv: the ranked fleet cleaning plan, one row per exchanger, money in the site currency.</summary>
+public static class PlanWriter
+{
+    public static readonly string[] Columns =
+    [
+        "rank", "exchanger", "service", "window", "window_start", "window_end", "net_saving", "net_saving_90_low", "net_saving_90_high",
+        "fouling_cost_until_window", "payback_days", "co2_avoided_t", "cost_per_day_now", "currency", "note",
+    ];
+
+    public static void Write(string path, PlantResult r)
+    {
+        var sb = new StringBuilder();
+        sb.AppendJoin(',', Columns).Append('\n');
+        var zone = r.Configuration.Site.TimeZone;
+        string D(DateTimeOffset? t) => t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture) : "";
+        foreach (var p in r.Plan.Entries)
+        {
+            var econ = r.Exchangers.First(x => x.History.Exchanger.Id == p.ExchangerId).Economics;
+            string[] cells =
+            [
+                p.Rank.ToString(System.Globalization.CultureInfo.InvariantCulture), Quote(p.ExchangerId), Quote(p.Service), Quote(p.Window?.Name),
+                D(p.Window?.Start), D(p.Window?.End),
+                NumberText.Csv(p.Option?.Saving ?? double.NaN), NumberText.Csv(p.Option?.SavingLow ?? double.NaN), NumberText.Csv(p.Option?.SavingHigh ?? double.NaN),
+                NumberText.Csv(p.Option?.FoulingCostUntil ?? double.NaN), NumberText.Csv(p.Option?.PaybackDays ?? double.NaN),
+                NumberText.Csv((p.Option?.Co2Avoided ?? double.NaN) / 1000), NumberText.Csv(econ.CostPerDayNow), r.Configuration.Economics.Currency, Quote(p.Note),
+            ];
+            sb.AppendJoin(',', cells).Append('\n');
+        }
+        AtomicFile.WriteAllText(path, sb.ToString());
+    }
+
+    private static string Quote(string? text) =>
+        string.IsNullOrEmpty(text) ? "" : text.IndexOfAny([',', '"', '\n']) >= 0 ? $"\"{text.Replace("\"", "\"\"")}\"" : text;
+}
