@@ -35,7 +35,8 @@ public static class AnalyzeCommand
         output.Write(t);
         output.WriteLine();
         WritePlan(result, output);
-        output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, plan.csv, <exchanger>/timeseries.csv)");
+        output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, plan.csv, <exchanger>/timeseries.csv, charts/)");
+        output.WriteLine($"Report:  {Path.Combine(Path.GetFullPath(outDirectory), "report.html")} (opens offline in a browser)");
         return FoulingWatchCommand.Success;
     }
 

@@ -30,6 +30,22 @@ public static class ResultWriter
                 x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList());
         AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
         PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
+        WriteReport(result, outDirectory);
+    }
+
+    /// <summary>Charts (PNG and SVG under charts/) and the self-contained report.html.</summary>
+    public static void WriteReport(PlantResult result, string outDirectory)
+    {
+        var charts = new Dictionary<string, IReadOnlyList<Charts.Chart>>();
+        foreach (var x in result.Exchangers) charts[x.History.Exchanger.Id] = Charts.ReportCharts.ForExchanger(x);
+        IReadOnlyList<Charts.Chart> site = [Charts.ReportCharts.CostRanking(result), Charts.ReportCharts.PlanTimeline(result)];
+        var folder = Path.Combine(outDirectory, "charts");
+        foreach (var c in charts.Values.SelectMany(c => c).Concat(site))
+        {
+            AtomicFile.WriteAllBytes(Path.Combine(folder, c.Name + ".png"), c.Png);
+            AtomicFile.WriteAllText(Path.Combine(folder, c.Name + ".svg"), c.Svg);
+        }
+        AtomicFile.WriteAllText(Path.Combine(outDirectory, "report.html"), Html.HtmlReport.Build(result, charts, site));
     }
 
     /// <summary>A file-system-safe folder name for an exchanger id.</summary>

@@ -1,0 +1,107 @@
+using System.Diagnostics;
+using System.Text.RegularExpressions;
+using System.Xml.Linq;
+
+namespace FoulingWatch.Cli.Tests;
+
+/// <summary>One analyse run of the sample plant (20-day window) shared by the report tests.</summary>
+public sealed class SampleRun : IDisposable
+{
+    public SampleRun()
+    {
+        Plant = new SamplePlantCopy();
+        Out = Plant.Out("results");
+        var (code, _, error) = SamplePlantCopy.Run("analyze", "--config", Plant.ConfigPath, "--out", Out, "--quiet");
+        if (code != 0) throw new InvalidOperationException(error);
+    }
+
+    public SamplePlantCopy Plant { get; }
+    public string Out { get; }
+    public void Dispose() => Plant.Dispose();
+}
+
+public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
+{
+    private static readonly string Chromium = "/usr/bin/chromium";
+
+    private static (string Dom, string Log) Headless(string html)
+    {
+        Assert.True(File.Exists(Chromium), "the browser check needs Debian's chromium (apt-get install -y chromium); .ci/run installs it");
+        var profile = Path.Combine(Path.GetTempPath(), "fw-chromium-" + Guid.NewGuid().ToString("N"));
+        var psi = new ProcessStartInfo(Chromium)
+        {
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
+            UseShellExecute = false,
+        };
+        foreach (var a in new[] { "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking",
+                     "--disable-component-update", "--disable-sync", $"--user-data-dir={profile}", "--enable-logging=stderr", "--v=0",
+                     "--virtual-time-budget=5000", "--dump-dom", new Uri(html).AbsoluteUri })
+            psi.ArgumentList.Add(a);
+        using var p = Process.Start(psi)!;
+        var dom = p.StandardOutput.ReadToEndAsync();
+        var log = p.StandardError.ReadToEndAsync();
+        Assert.True(p.WaitForExit(90_000), "chromium did not finish in 90 s");
+        return (dom.Result, log.Result);
+    }
+
+    [Fact]
+    public void The_report_loads_in_a_headless_browser_with_every_chart_decoded_and_no_errors()
+    {
+        var html = Path.Combine(run.Out, "report.html");
+        var (dom, log) = Headless(html);
+        var images = Regex.Matches(File.ReadAllText(html), "<img ").Count;
+        Assert.True(images >= 6 * 4 + 2, $"expected the charts in the report, found {images} images");
+        Assert.Contains($"data-images=\"{images}/{images}\"", dom);
+        // console errors, refused loads and CSP violations are logged by Chromium as CONSOLE lines
+        Assert.DoesNotMatch("CONSOLE.*(Uncaught|Refused|Error)", log);
+        Assert.DoesNotMatch("net::ERR_", log);
+        var plan = Regex.Match(dom, "<table class=\"plan\" id=\"plan-table\">.*?</table>", RegexOptions.Singleline).Value;
+        Assert.Equal(6, Regex.Matches(plan, "<tr><td>\\d+</td>").Count);
+        Assert.Contains("id=\"caution\"", dom);
+    }
+
+    [Fact]
+    public void The_report_asks_for_nothing_from_the_network()
+    {
+        var text = File.ReadAllText(Path.Combine(run.Out, "report.html"));
+        Assert.DoesNotMatch("(src|href)=\"(https?:)?//", text);
+        Assert.Contains("default-src 'none'", text);
+    }
+
+    // PNG: the 8-byte signature and the IHDR chunk's width and height (ISO/IEC 15948 / W3C PNG specification §5, §11.2.2).
+    [Fact]
+    public void Chart_files_are_valid_png_and_svg_of_the_stated_size()
+    {
+        var pngs = Directory.GetFiles(Path.Combine(run.Out, "charts"), "*.png");
+        Assert.Equal(6 * 4 + 2, pngs.Length);
+        foreach (var f in pngs)
+        {
+            var b = File.ReadAllBytes(f);
+            Assert.Equal(new byte[] { 0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A }, b[..8]);
+            Assert.Equal("IHDR", System.Text.Encoding.ASCII.GetString(b, 12, 4));
+            Assert.Equal(960, (b[16] << 24) | (b[17] << 16) | (b[18] << 8) | b[19]);
+            Assert.Equal(420, (b[20] << 24) | (b[21] << 16) | (b[22] << 8) | b[23]);
+            var svg = XDocument.Load(Path.ChangeExtension(f, ".svg"));
+            Assert.Equal("svg", svg.Root!.Name.LocalName);
+            Assert.Equal("960", svg.Root.Attribute("width")!.Value.Replace("px", ""));
+            Assert.Equal("420", svg.Root.Attribute("height")!.Value.Replace("px", ""));
+        }
+    }
+
+    // Golden file of summary.json on the sample plant (20-day window). It changes only deliberately: set
+    // FOULINGWATCH_REGENERATE_GOLDEN=1 to rewrite it, then review the diff before committing.
+    [Fact]
+    public void Summary_matches_the_golden_file()
+    {
+        var golden = Path.Combine(SamplePlantCopy.FindSampleData(), "..", "tests", "data", "golden", "summary-sample-20d.json");
+        var actual = File.ReadAllText(Path.Combine(run.Out, "summary.json"));
+        if (Environment.GetEnvironmentVariable("FOULINGWATCH_REGENERATE_GOLDEN") == "1")
+        {
+            Directory.CreateDirectory(Path.GetDirectoryName(golden)!);
+            File.WriteAllText(golden, actual);
+        }
+        Assert.True(File.Exists(golden), $"no golden file at {golden}; create it deliberately with FOULINGWATCH_REGENERATE_GOLDEN=1");
+        Assert.Equal(File.ReadAllText(golden), actual);
+    }
+}
