@@ -113,3 +113,21 @@ public class PlanCommandTests
         Assert.Equal(6, doc.RootElement.GetProperty("entries").GetArrayLength());
     }
 }
+
+public class ReadmeTests
+{
+    // The README's configuration example must be a valid configuration for the sample data.
+    [Fact]
+    public void The_readme_configuration_example_is_valid()
+    {
+        var readme = File.ReadAllText(Path.Combine(SamplePlantCopy.FindSampleData(), "..", "README.md"));
+        var start = readme.IndexOf("```jsonc", StringComparison.Ordinal) + "```jsonc".Length;
+        var end = readme.IndexOf("```", start, StringComparison.Ordinal);
+        using var plant = new SamplePlantCopy(windowStart: null);
+        var path = plant.Out("readme.json");
+        File.WriteAllText(path, readme[start..end]);
+        var (code, output, error) = SamplePlantCopy.Run("check", "--config", path);
+        Assert.True(code == 0, error);
+        Assert.Contains("valid; site Kestrel Bay refinery (fictional), 1 exchanger(s)", output);
+    }
+}
