@@ -22,6 +22,12 @@ public static class PlantAnalysis
     public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null)
     {
         var ingest = HistorianIngest.Run(config, progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction))));
+        return Run(config, ingest, progress);
+    }
+
+    /// <summary>Runs the analysis on data already ingested and aligned.</summary>
+    public static PlantResult Run(PlantConfiguration config, IngestResult ingest, IProgress<(string Stage, double Fraction)>? progress = null)
+    {
         var results = new List<ExchangerResult>();
         for (var i = 0; i < config.Exchangers.Count; i++)
         {

@@ -53,6 +53,26 @@ public static class FoulingWatchCommand
             p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
         root.Subcommands.Add(plan);
 
+        var dropOption = new Option<DirectoryInfo?>("--drop") { Description = "Drop folder to watch (overrides watch.dropFolder)." };
+        var storeOption = new Option<FileInfo?>("--store") { Description = "SQLite store file (overrides watch.store)." };
+        var watchOut = new Option<DirectoryInfo?>("--out", "-o") { Description = "Results folder (overrides watch.out)." };
+        var pollOption = new Option<double?>("--poll-seconds") { Description = "Seconds between passes over the drop folder (overrides watch.pollInterval)." };
+        var watch = new Command("watch", "Run as a monitoring service: ingest new exports from the drop folder, re-analyse, report and alert, until stopped.");
+        watch.Options.Add(configOption);
+        watch.Options.Add(dropOption);
+        watch.Options.Add(storeOption);
+        watch.Options.Add(watchOut);
+        watch.Options.Add(pollOption);
+        watch.SetAction(p => Guard(error, () => Watch.WatchCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(dropOption)?.FullName, p.GetValue(storeOption)?.FullName,
+            p.GetValue(watchOut)?.FullName, p.GetValue(pollOption) is { } s ? TimeSpan.FromSeconds(s) : null, error)));
+        root.Subcommands.Add(watch);
+
+        var status = new Command("status", "Show what the watch service's store holds and its active alerts.");
+        status.Options.Add(configOption);
+        status.Options.Add(storeOption);
+        status.SetAction(p => Guard(error, () => Watch.WatchCommand.Status(p.GetValue(configOption)!.FullName, p.GetValue(storeOption)?.FullName, output, error)));
+        root.Subcommands.Add(status);
+
         var demoOut = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the demo results.", DefaultValueFactory = _ => new DirectoryInfo("foulingwatch-demo") };
         var demo = new Command("demo", "Run the whole job on the bundled sample plant (Kestrel Bay, invented) and say where the results are.");
         demo.Options.Add(demoOut);

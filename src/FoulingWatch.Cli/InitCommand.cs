@@ -24,7 +24,7 @@ public static class InitCommand
             if (!File.Exists(f)) { error.WriteLine($"'{f}' does not exist; give the path of a historian CSV export."); return FoulingWatchCommand.UsageOrConfigurationError; }
         if (File.Exists(outPath)) { error.WriteLine($"'{outPath}' exists already; choose another --out or delete it (init never overwrites a configuration)."); return FoulingWatchCommand.UsageOrConfigurationError; }
 
-        var source = new HistorianSource("historian", "data.sources[0]", dataFiles, HistorianLayout.Wide, null, null, null, null, null,
+        var source = new HistorianSource("historian", "data.sources[0]", ["*"], dataFiles, HistorianLayout.Wide, null, null, null, null, null,
             new TimestampSettings(null, null, false), PlantConfigurationReader.DefaultMarkers, "Tag", "Value", null, []);
         var dialect = FileDialectDetector.Detect(dataFiles[0], source);
         var tsColumn = FileDialectDetector.TimestampColumnIndex(dialect.Header, source);

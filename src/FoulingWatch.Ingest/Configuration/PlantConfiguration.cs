@@ -11,7 +11,14 @@ public sealed record PlantConfiguration(
     DataSettings Data,
     EconomicsSettings Economics,
     IReadOnlyList<ShutdownWindow> ShutdownWindows,
-    IReadOnlyList<ExchangerConfiguration> Exchangers);
+    IReadOnlyList<ExchangerConfiguration> Exchangers,
+    WatchSettings Watch);
+
+/// <summary>Settings of the monitoring service (<c>foulingwatch watch</c>); paths absolute.</summary>
+/// <param name="AlertHorizon">A limit forecast inside this horizon raises an alert.</param>
+/// <param name="StaleAfter">No new data for this long raises a "data stopped" alert.</param>
+public sealed record WatchSettings(string DropFolder, string Store, string Out, string Log, TimeSpan PollInterval, TimeSpan SettleTime,
+    TimeSpan AlertHorizon, TimeSpan StaleAfter);
 
 /// <summary>Site name, its time zone (for historian local times) and the atmosphere used for gauge pressures in Pa.</summary>
 public sealed record SiteSettings(string Name, TimeZoneInfo TimeZone, double AtmospherePascals);
@@ -33,6 +40,7 @@ public sealed record TimestampSettings(string? Column, string? Format, bool Assu
 public sealed record HistorianSource(
     string Id,
     string Path,
+    IReadOnlyList<string> Patterns,
     IReadOnlyList<string> Files,
     HistorianLayout Layout,
     char? Delimiter,

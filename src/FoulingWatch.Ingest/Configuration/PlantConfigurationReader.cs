@@ -21,14 +21,15 @@ public static class PlantConfigurationReader
         AllowTrailingCommas = true,
     };
 
-    public static PlantConfiguration Load(string file)
+    /// <param name="requireFiles">False for the watch service, whose exports arrive later in the drop folder.</param>
+    public static PlantConfiguration Load(string file, bool requireFiles = true)
     {
         if (!System.IO.File.Exists(file))
             throw new ConfigurationException(file, [new ConfigurationError("(file)", $"'{file}' does not exist; give the path of the plant configuration JSON.")]);
-        return Parse(System.IO.File.ReadAllText(file), file);
+        return Parse(System.IO.File.ReadAllText(file), file, requireFiles);
     }
 
-    public static PlantConfiguration Parse(string json, string file)
+    public static PlantConfiguration Parse(string json, string file, bool requireFiles = true)
     {
         JsonDocument doc;
         try { doc = JsonDocument.Parse(json, JsonOptions); }
@@ -48,7 +49,8 @@ public static class PlantConfigurationReader
 
             var site = ReadSite(root.Object("site", required: true));
             var economics = ReadEconomics(root.Object("economics"), null) ?? new EconomicsSettings("EUR", null, null, null, null, null, null);
-            var data = ReadData(root.Object("data", required: true), baseDir, site);
+            var data = ReadData(root.Object("data", required: true), baseDir, site, requireFiles);
+            var watch = ReadWatch(root.Object("watch"), baseDir);
             var windows = root.Array("shutdownWindows").Select(w => ReadWindow(root, w.Element, w.Path, site)).OfType<ShutdownWindow>().ToList();
             var exchangers = new List<ExchangerConfiguration>();
             var ids = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
@@ -65,7 +67,7 @@ public static class PlantConfigurationReader
                 root.Error("exchangers", "is empty; describe at least one exchanger.");
             root.Done();
             if (errors.Count > 0) throw new ConfigurationException(file, errors);
-            return new PlantConfiguration(System.IO.Path.GetFullPath(file), site!, data!, economics, windows, exchangers);
+            return new PlantConfiguration(System.IO.Path.GetFullPath(file), site!, data!, economics, windows, exchangers, watch);
         }
     }
 
@@ -83,7 +85,20 @@ public static class PlantConfigurationReader
         return new SiteSettings(name, zone, atm ?? 101_325.0);
     }
 
-    private static DataSettings? ReadData(JsonNode? n, string baseDir, SiteSettings? site)
+    private static WatchSettings ReadWatch(JsonNode? n, string baseDir)
+    {
+        string P(string? path, string fallback) => System.IO.Path.GetFullPath(System.IO.Path.Combine(baseDir, path ?? fallback));
+        var w = new WatchSettings(
+            P(n?.String("dropFolder"), "drop"), P(n?.String("store"), "state/foulingwatch.db"), P(n?.String("out"), "results"), P(n?.String("log"), "logs"),
+            TimeSpan.FromSeconds(n?.Quantity("pollInterval", Dimension.Duration, minSi: 0.05) ?? 30),
+            TimeSpan.FromSeconds(n?.Quantity("settleTime", Dimension.Duration, minSi: 0) ?? 10),
+            TimeSpan.FromSeconds(n?.Quantity("alertHorizon", Dimension.Duration, minSi: 0) ?? 30 * 86400.0),
+            TimeSpan.FromSeconds(n?.Quantity("staleAfter", Dimension.Duration, minSi: 60) ?? 86400.0));
+        n?.Done();
+        return w;
+    }
+
+    private static DataSettings? ReadData(JsonNode? n, string baseDir, SiteSettings? site, bool requireFiles)
     {
         if (n is null) return null;
         var interval = n.Quantity("interval", Dimension.Duration, minSi: 1, maxSi: 86400 * 7) ?? 600;
@@ -93,7 +108,7 @@ public static class PlantConfigurationReader
         {
             var s = n.AsObject(e, path);
             if (s is null) continue;
-            var src = ReadSource(s, baseDir);
+            var src = ReadSource(s, baseDir, requireFiles);
             if (src is not null) sources.Add(src);
         }
         DateTimeOffset? start = null, end = null;
@@ -109,11 +124,12 @@ public static class PlantConfigurationReader
         return new DataSettings(sources, TimeSpan.FromSeconds(interval), TimeSpan.FromSeconds(maxGap), start, end);
     }
 
-    private static HistorianSource? ReadSource(JsonNode s, string baseDir)
+    private static HistorianSource? ReadSource(JsonNode s, string baseDir, bool requireFiles)
     {
         var id = s.String("id") ?? "historian";
         var patterns = s.Array("files", required: true);
         var files = new List<string>();
+        var names = new List<string>();
         foreach (var (e, path) in patterns)
         {
             if (e.ValueKind != JsonValueKind.String) { s.ErrorAt(path, "must be a file path or pattern in quotes, e.g. \"data/export-*.csv\"."); continue; }
@@ -122,7 +138,8 @@ public static class PlantConfigurationReader
             var dir = System.IO.Path.GetDirectoryName(full)!;
             var namePattern = System.IO.Path.GetFileName(full);
             var found = Directory.Exists(dir) ? Directory.GetFiles(dir, namePattern).Order(StringComparer.Ordinal).ToList() : [];
-            if (found.Count == 0) s.ErrorAt(path, $"'{pattern}' matches no file (looked in {dir}); check the path, which is relative to the configuration file.");
+            names.Add(namePattern);
+            if (found.Count == 0 && requireFiles) s.ErrorAt(path, $"'{pattern}' matches no file (looked in {dir}); check the path, which is relative to the configuration file.");
             files.AddRange(found);
         }
         var layoutText = s.String("layout") ?? "wide";
@@ -158,7 +175,7 @@ public static class PlantConfigurationReader
             ? s.Array("goodQuality").Select(g => g.Element.ValueKind == JsonValueKind.Number ? g.Element.GetRawText() : g.Element.GetString() ?? "").ToList()
             : new List<string> { "Good", "G", "192", "0", "OK" };
         s.Done();
-        return layout is null ? null : new HistorianSource(id, s.Path, files, layout.Value, delimiter, decimalSep, encoding?.ToLowerInvariant() is "auto" ? null : encoding,
+        return layout is null ? null : new HistorianSource(id, s.Path, names, files, layout.Value, delimiter, decimalSep, encoding?.ToLowerInvariant() is "auto" ? null : encoding,
             headerLine, metadataRows, timestamp, markers, tagColumn, valueColumn, qualityColumn, good);
     }
 

@@ -54,7 +54,8 @@ public static class HistorianIngest
         public HashSet<long>? SeenTimestamps;
     }
 
-    public static IngestResult Run(PlantConfiguration config, IProgress<(string File, double Fraction)>? progress = null)
+    /// <param name="requireAllTags">False when one file of many is read (the watch service): tags absent from it are not an error.</param>
+    public static IngestResult Run(PlantConfiguration config, IProgress<(string File, double Fraction)>? progress = null, RawValueSink? sink = null, bool requireAllTags = true)
     {
         var channels = new Dictionary<string, Channel>(StringComparer.Ordinal);
         var conflicts = new List<ConfigurationError>();
@@ -86,15 +87,15 @@ public static class HistorianIngest
             {
                 var dialect = FileDialectDetector.Detect(file, source);
                 var report = source.Layout == HistorianLayout.Wide
-                    ? ReadWide(file, source, dialect, config, channels, signatures, foundIn, interval, windowStart, windowEnd)
-                    : ReadLong(file, source, dialect, config, channels, foundIn, interval, windowStart, windowEnd, ref otherRows);
+                    ? ReadWide(file, source, dialect, config, channels, signatures, foundIn, interval, windowStart, windowEnd, sink)
+                    : ReadLong(file, source, dialect, config, channels, foundIn, interval, windowStart, windowEnd, ref otherRows, sink);
                 files.Add(report);
                 progress?.Report((file, ++done / (double)allFiles.Count));
             }
         }
 
         var missingTags = channels.Values.Where(c => !foundIn.ContainsKey(c.Reference.Tag)).ToList();
-        if (missingTags.Count > 0)
+        if (missingTags.Count > 0 && requireAllTags)
             throw new ConfigurationException(config.File, missingTags.Select(c => new ConfigurationError($"{c.Reference.Path}.tag",
                 $"'{c.Reference.Tag}' is not in the data: no column or row of that tag in {string.Join(", ", allFiles.Select(f => Path.GetFileName(f.File)))}. Check the tag name against the export header.")).ToList());
 
@@ -126,6 +127,34 @@ public static class HistorianIngest
             channels.ToDictionary(kv => kv.Key, kv => kv.Value.Ledger, StringComparer.Ordinal), files, otherRows);
     }
 
+    /// <summary>Aligns values already ingested (e.g. from the watch service's store) onto the grid, with the given ledgers.</summary>
+    public static IngestResult Align(PlantConfiguration config, IEnumerable<(string Tag, long UtcTicks, double Value)> values,
+        IReadOnlyDictionary<string, TagLedger> ledgers, IReadOnlyList<FileReport> files)
+    {
+        var interval = config.Data.Interval.Ticks;
+        var bins = new Dictionary<string, BinAccumulator>(StringComparer.Ordinal);
+        foreach (var t in config.Exchangers.SelectMany(x => x.Tags()).Select(t => t.Tag).Distinct()) bins[t] = new BinAccumulator();
+        foreach (var (tag, ticks, value) in values)
+            if (bins.TryGetValue(tag, out var b)) b.Add(ticks / interval, value);
+        var withData = bins.Values.Where(b => !b.IsEmpty).ToList();
+        var first = config.Data.WindowStart is { } ws ? ws.UtcTicks / interval : withData.Count == 0 ? 0 : withData.Min(b => b.MinimumBin);
+        var last = config.Data.WindowEnd is { } we ? (we.UtcTicks - 1) / interval : withData.Count == 0 ? -1 : withData.Max(b => b.MaximumBin);
+        var count = (int)Math.Max(0, last - first + 1);
+        var maxGap = (int)Math.Max(1, config.Data.MaxGap.Ticks / interval);
+        var series = new Dictionary<string, double[]>(StringComparer.Ordinal);
+        var outLedgers = new Dictionary<string, TagLedger>(StringComparer.Ordinal);
+        foreach (var (tag, b) in bins)
+        {
+            var means = b.Means(first, count);
+            var ledger = new TagLedger(tag);
+            if (ledgers.TryGetValue(tag, out var l)) ledger.Merge(l);
+            (ledger.IntervalsWithData, ledger.IntervalsBridged, ledger.IntervalsMissing) = GapBridge.Bridge(means, maxGap);
+            series[tag] = means;
+            outLedgers[tag] = ledger;
+        }
+        return new IngestResult(new DateTimeOffset(first * interval, TimeSpan.Zero), config.Data.Interval, count, series, outLedgers, files, 0);
+    }
+
     private static CsvReader OpenReader(string file, FileDialect dialect)
     {
         var stream = ExportStream.OpenAt(file, dialect.HeaderByteOffset);
@@ -145,7 +174,7 @@ public static class HistorianIngest
 
     private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
         Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>[]> signatures, Dictionary<string, List<string>> foundIn,
-        long interval, long? windowStart, long? windowEnd)
+        long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
     {
         var header = dialect.Header;
         var tsColumn = FileDialectDetector.TimestampColumnIndex(header, source);
@@ -169,13 +198,13 @@ public static class HistorianIngest
         var groups = Enumerable.Range(0, workers).Select(w => columns.Skip(w * columns.Count / workers).Take((w + 1) * columns.Count / workers - w * columns.Count / workers).ToArray()).ToArray();
         var outcomes = new (long Rows, long Daylight, long Standard)[workers];
         Parallel.For(0, workers, new ParallelOptions { MaxDegreeOfParallelism = workers }, w =>
-            outcomes[w] = ReadWideColumns(file, source, dialect, config, groups[w], seenSets[w], tsColumn, interval, windowStart, windowEnd));
+            outcomes[w] = ReadWideColumns(file, source, dialect, config, groups[w], seenSets[w], tsColumn, interval, windowStart, windowEnd, sink));
         return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
             outcomes[0].Rows, outcomes[0].Daylight, outcomes[0].Standard, header.ToList());
     }
 
     private static (long Rows, long Daylight, long Standard) ReadWideColumns(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        (int Index, Channel Channel)[] columns, HashSet<long> seen, int tsColumn, long interval, long? windowStart, long? windowEnd)
+        (int Index, Channel Channel)[] columns, HashSet<long> seen, int tsColumn, long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
     {
         var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
         var decimalByte = (byte)dialect.DecimalSeparator;
@@ -208,13 +237,14 @@ public static class HistorianIngest
             }
             var bin = utc / interval;
             foreach (var (index, c) in columns)
-                AddValue(c, reader, index, bin, decimalByte, markers, name, dialect.HeaderLine - 1);
+                AddValue(c, reader, index, bin, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
         }
         return (rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard);
     }
 
     private static FileReport ReadLong(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        Dictionary<string, Channel> channels, Dictionary<string, List<string>> foundIn, long interval, long? windowStart, long? windowEnd, ref long otherRows)
+        Dictionary<string, Channel> channels, Dictionary<string, List<string>> foundIn, long interval, long? windowStart, long? windowEnd, ref long otherRows,
+        RawValueSink? sink)
     {
         var header = dialect.Header;
         int Find(string name) => header.ToList().FindIndex(h => h.Equals(name, StringComparison.OrdinalIgnoreCase));
@@ -271,7 +301,7 @@ public static class HistorianIngest
                 c.Ledger.CountRejected(r, () => Example(name, line, col, c.Reference.Tag, r, detail));
                 continue;
             }
-            AddValue(c, reader, valueColumn, utc / interval, decimalByte, markers, name, dialect.HeaderLine - 1);
+            AddValue(c, reader, valueColumn, utc / interval, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
         }
         return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
             rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
@@ -282,8 +312,8 @@ public static class HistorianIngest
 
     // The hot path: no closures here (a lambda capturing the parameters would allocate on every call); rejections go
     // to RejectValue, which may allocate.
-    private static void AddValue(Channel c, CsvReader reader, int column, long bin, byte decimalByte, Dictionary<string, string> markers,
-        string file, long lineOffset)
+    private static void AddValue(Channel c, CsvReader reader, int column, long bin, long utc, byte decimalByte, Dictionary<string, string> markers,
+        string file, long lineOffset, RawValueSink? sink)
     {
         var span = reader.GetSpan(column);
         if (!span.IsEmpty && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
@@ -294,6 +324,7 @@ public static class HistorianIngest
             {
                 c.Ledger.CountUsed();
                 c.Bins.Add(bin, si);
+                sink?.Add(c.Reference.Tag, utc, si);
                 return;
             }
             RejectValue(c, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, lineOffset + reader.LineNumber, column);

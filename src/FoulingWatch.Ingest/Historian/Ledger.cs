@@ -56,10 +56,26 @@ public sealed class TagLedger
     public long[] Rejected { get; } = new long[RejectReasons.All.Length];
     public SortedDictionary<string, long> Markers { get; } = new(StringComparer.Ordinal);
     public List<string> Examples { get; } = [];
-    public long IntervalsWithData { get; internal set; }
-    public long IntervalsBridged { get; internal set; }
-    public long IntervalsMissing { get; internal set; }
+    public long IntervalsWithData { get; set; }
+    public long IntervalsBridged { get; set; }
+    public long IntervalsMissing { get; set; }
     public long RejectedTotal => Rejected.Sum();
+
+    /// <summary>Moves values counted as used to another reason (the watch store finds some values it already holds: duplicates).</summary>
+    public void Reclassify(long count, RejectReason reason)
+    {
+        Used -= count;
+        Rejected[(int)reason] += count;
+    }
+
+    /// <summary>Restores counts kept in a store.</summary>
+    public void Restore(long read, long used, long[] rejected, IReadOnlyDictionary<string, long> markers)
+    {
+        Read = read;
+        Used = used;
+        Array.Copy(rejected, Rejected, Math.Min(rejected.Length, Rejected.Length));
+        foreach (var (k, v) in markers) Markers[k] = v;
+    }
 
     internal void CountUsed()
     {
@@ -80,7 +96,7 @@ public sealed class TagLedger
         Markers[marker] = n + 1;
     }
 
-    internal void Merge(TagLedger other)
+    public void Merge(TagLedger other)
     {
         Read += other.Read;
         Used += other.Used;
@@ -102,3 +118,21 @@ public sealed record FileReport(
     long AmbiguousLocalTimesAsDaylight,
     long AmbiguousLocalTimesAsStandard,
     IReadOnlyList<string> Columns);
+
+/// <summary>Receives every value used by an ingest (tag, UTC ticks, SI value); called from several threads at once.</summary>
+public sealed class RawValueSink
+{
+    private readonly object _gate = new();
+    private readonly List<(string Tag, long UtcTicks, double Value)> _values = [];
+
+    public void Add(string tag, long utcTicks, double value)
+    {
+        lock (_gate) _values.Add((tag, utcTicks, value));
+    }
+
+    /// <summary>The values in a deterministic order (tag, then time).</summary>
+    public List<(string Tag, long UtcTicks, double Value)> Values()
+    {
+        lock (_gate) return _values.OrderBy(v => v.Tag, StringComparer.Ordinal).ThenBy(v => v.UtcTicks).ToList();
+    }
+}

@@ -1,0 +1,232 @@
+using System.IO.Enumeration;
+using System.Security.Cryptography;
+using System.Text.Json;
+using FoulingWatch.Analysis;
+using FoulingWatch.Analysis.BackCalculation;
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
+using FoulingWatch.Reporting.Results;
+using Microsoft.Extensions.Logging;
+
+namespace FoulingWatch.Cli.Watch;
+
+/// <summary>
+/// One pass of the monitoring service: pick up new or grown exports in the drop folder once they have stopped changing,
+/// ingest only what is new (one transaction per file), re-analyse, rewrite the reports atomically, and raise or clear alerts.
+/// </summary>
+public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings, WatchStore store, TimeProvider clock, ILogger log)
+{
+    private readonly Dictionary<string, (long Length, DateTime Modified, DateTimeOffset Since)> _observed = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, string> _hashes = new(StringComparer.Ordinal);
+    private bool _analysedOnce;
+
+    public string AlertsFile => Path.Combine(settings.Out, "alerts.jsonl");
+
+    /// <summary>Runs one pass; returns the number of files ingested.</summary>
+    public int Poll()
+    {
+        Directory.CreateDirectory(settings.DropFolder);
+        var ingested = 0;
+        foreach (var path in Directory.GetFiles(settings.DropFolder).Order(StringComparer.Ordinal))
+        {
+            var name = Path.GetFileName(path);
+            if (name.EndsWith(".tmp", StringComparison.OrdinalIgnoreCase) || name.StartsWith('.')) continue;
+            var source = config.Data.Sources.FirstOrDefault(s => s.Patterns.Any(p => FileSystemName.MatchesSimpleExpression(p, name)));
+            if (source is null) continue;
+            if (!IsSettled(path)) continue;
+            try
+            {
+                if (IngestFile(path, source)) ingested++;
+            }
+            catch (Exception ex) when (ex is IngestException or ConfigurationException or IOException or Core.Quantities.QuantityOutOfRangeException)
+            {
+                log.LogError("Could not ingest {File}: {Reason}", name, ex.Message);
+                var info = new FileInfo(path);
+                store.RecordFailure(new StoredFile(Hash(path), name, info.Length, 0, clock.GetUtcNow(), ex.Message));
+            }
+        }
+        if (ingested > 0 || (!_analysedOnce && store.ValueCount() > 0)) Analyse();
+        EvaluateStaleData();
+        return ingested;
+    }
+
+    /// <summary>A file is taken only when its size and time stamp have not changed for the settle time (a file still being written is waited for).</summary>
+    private bool IsSettled(string path)
+    {
+        var info = new FileInfo(path);
+        var now = clock.GetUtcNow();
+        if (!_observed.TryGetValue(path, out var seen) || seen.Length != info.Length || seen.Modified != info.LastWriteTimeUtc)
+        {
+            _observed[path] = (info.Length, info.LastWriteTimeUtc, now);
+            return settings.SettleTime <= TimeSpan.Zero && info.Length > 0;
+        }
+        return info.Length > 0 && now - seen.Since >= settings.SettleTime;
+    }
+
+    private string Hash(string path)
+    {
+        var info = new FileInfo(path);
+        var key = $"{path}|{info.Length}|{info.LastWriteTimeUtc.Ticks}";
+        if (_hashes.TryGetValue(key, out var h)) return h;
+        using var fs = File.OpenRead(path);
+        return _hashes[key] = Convert.ToHexString(SHA256.HashData(fs));
+    }
+
+    private static string PrefixHash(string path, long length)
+    {
+        using var fs = File.OpenRead(path);
+        using var sha = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
+        var buffer = new byte[1 << 16];
+        var left = length;
+        while (left > 0)
+        {
+            var n = fs.Read(buffer, 0, (int)Math.Min(buffer.Length, left));
+            if (n == 0) break;
+            sha.AppendData(buffer, 0, n);
+            left -= n;
+        }
+        return Convert.ToHexString(sha.GetHashAndReset());
+    }
+
+    private bool IngestFile(string path, HistorianSource source)
+    {
+        var name = Path.GetFileName(path);
+        var hash = Hash(path);
+        if (store.FileByHash(hash) is not null) return false;
+        var length = new FileInfo(path).Length;
+        // Only complete lines are taken: a last line without its line break is left for the next pass.
+        var usable = LastLineEnd(path, length);
+        if (usable <= 0) return false;
+        var readFrom = 0L;
+        var previous = store.Files().Where(f => f.Name == name && f.Error is null && f.Length < usable && !path.EndsWith(".gz", StringComparison.OrdinalIgnoreCase))
+            .OrderByDescending(f => f.Length).FirstOrDefault();
+        if (previous is not null && PrefixHash(path, previous.Length) == previous.Hash) readFrom = previous.Length;
+        var work = readFrom > 0 || usable < length ? Excerpt(path, source, readFrom, usable) : path;
+        try
+        {
+            var single = config with { Data = config.Data with { Sources = [source with { Files = [work] }] } };
+            var sink = new RawValueSink();
+            var result = HistorianIngest.Run(single, sink: sink, requireAllTags: false);
+            var values = sink.Values();
+            var stored = new StoredFile(usable == length ? hash : PrefixHash(path, usable), name, usable, 0, clock.GetUtcNow(), null);
+            var inserted = store.Ingest(stored, values, result.TagLedgers.Where(kv => kv.Value.Read > 0).ToDictionary(kv => kv.Key, kv => kv.Value));
+            log.LogInformation("Ingested {File} ({Mode}): {New} new values of {Read} read, {Rejected} rejected",
+                name, readFrom > 0 ? "new rows only" : "whole file", inserted.Values.Sum(), result.TagLedgers.Values.Sum(l => l.Read), result.TagLedgers.Values.Sum(l => l.RejectedTotal));
+            foreach (var (tag, l) in result.TagLedgers.Where(kv => kv.Value.RejectedTotal > 0))
+                log.LogWarning("Rejected {Rows} values of {Tag} in {File}: {Reasons}", l.RejectedTotal, tag, name,
+                    string.Join(", ", RejectReasons.All.Where(r => l.Rejected[(int)r] > 0).Select(r => $"{r.Key()} {l.Rejected[(int)r]}")));
+            return true;
+        }
+        finally
+        {
+            if (work != path) File.Delete(work);
+        }
+    }
+
+    private static long LastLineEnd(string path, long length)
+    {
+        if (path.EndsWith(".gz", StringComparison.OrdinalIgnoreCase)) return length;
+        using var fs = File.OpenRead(path);
+        var buffer = new byte[4096];
+        var end = length;
+        while (end > 0)
+        {
+            var start = Math.Max(0, end - buffer.Length);
+            fs.Position = start;
+            var n = fs.Read(buffer, 0, (int)(end - start));
+            for (var i = n - 1; i >= 0; i--)
+                if (buffer[i] == (byte)'\n') return start + i + 1;
+            end = start;
+        }
+        return 0;
+    }
+
+    /// <summary>A temporary export holding the header part of the file (up to the first data row) and its bytes [from, to).</summary>
+    private string Excerpt(string path, HistorianSource source, long from, long to)
+    {
+        var dialect = FileDialectDetector.Detect(path, source);
+        var bytes = File.ReadAllBytes(path);
+        var dataStart = dialect.HeaderByteOffset;
+        for (var lines = 0; lines < 1 + dialect.MetadataRows && dataStart < bytes.Length; dataStart++)
+            if (bytes[dataStart] == (byte)'\n') lines++;
+        var temp = Path.Combine(Path.GetTempPath(), $"fw-watch-{Guid.NewGuid():N}-{Path.GetFileName(path)}");
+        using (var fs = File.Create(temp))
+        {
+            fs.Write(bytes, 0, (int)dataStart);
+            var start = Math.Max(from, dataStart);
+            fs.Write(bytes, (int)start, (int)(to - start));
+        }
+        return temp;
+    }
+
+    /// <summary>Re-analyses everything in the store and rewrites the result files (each written to a temporary file and renamed).</summary>
+    public PlantResult? Analyse()
+    {
+        _analysedOnce = true;
+        var aligned = HistorianIngest.Align(config, store.Values(), store.Ledgers(), []);
+        if (aligned.IntervalCount == 0) return null;
+        var result = PlantAnalysis.Run(config, aligned);
+        ResultWriter.Write(result, settings.Out);
+        var summary = JsonSerializer.Serialize(ResultWriter.Summary(result), ResultWriter.Json);
+        store.SaveAnalysis(clock.GetUtcNow(), summary, result.Exchangers.SelectMany(x => x.History.Samples.Select(s =>
+            (x.History.Exchanger.Id, s.Timestamp.UtcTicks, s.Status.Key(), s.Evaluation.FoulingResistance, s.FoulingResistanceSigma, s.Evaluation.UActual, s.Evaluation.UClean, s.Evaluation.LostDuty))));
+        log.LogInformation("Analysed {Exchangers} exchangers over {Intervals} intervals; report at {Report}", result.Exchangers.Count, aligned.IntervalCount, Path.Combine(settings.Out, "report.html"));
+        UpdateAlerts(Conditions(result), ["limit", "rate-jump", "sensor-fault", "balance"]);
+        return result;
+    }
+
+    /// <summary>The alert conditions that hold now, from an analysis.</summary>
+    public List<(string Exchanger, string Kind, string Message)> Conditions(PlantResult result)
+    {
+        var now = clock.GetUtcNow();
+        var list = new List<(string, string, string)>();
+        foreach (var x in result.Exchangers)
+        {
+            var id = x.History.Exchanger.Id;
+            var f = x.Trend.Forecast;
+            if (f is not null && (f.AlreadyReached || (f.Date is { } d && d - now <= settings.AlertHorizon)))
+                list.Add((id, "limit", f.Statement));
+            if (x.Trend.Rate?.Jump == true) list.Add((id, "rate-jump", x.Trend.Rate.Statement));
+            if (x.History.SensorCheck.LikelyFault) list.Add((id, "sensor-fault", x.History.SensorCheck.Statement));
+            var last = x.History.Samples.Where(s => s.Status != SampleStatus.Missing).TakeLast(144).ToList();
+            if (last.Count >= 36 && last.Count(s => s.Status == SampleStatus.Balance) * 2 > last.Count)
+                list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s.Status == SampleStatus.Balance)} of the last {last.Count} samples")));
+        }
+        return list;
+    }
+
+    private void EvaluateStaleData()
+    {
+        var last = store.LastTimestamp();
+        var active = new List<(string, string, string)>();
+        if (last is { } t && clock.GetUtcNow() - new DateTimeOffset(t, TimeSpan.Zero) > settings.StaleAfter)
+            active.Add(("site", "data-stopped", FormattableString.Invariant($"no new historian data since {new DateTimeOffset(t, TimeSpan.Zero):yyyy-MM-dd HH:mm} UTC")));
+        UpdateAlerts(active, ["data-stopped"]);
+    }
+
+    /// <summary>Raises each condition once per episode and clears episodes whose condition has ended (only among the given kinds).</summary>
+    private void UpdateAlerts(List<(string Exchanger, string Kind, string Message)> now, string[] kinds)
+    {
+        var active = store.Alerts(activeOnly: true).Where(a => kinds.Contains(a.Kind)).ToList();
+        var at = clock.GetUtcNow();
+        foreach (var c in now)
+        {
+            if (active.Any(a => a.Exchanger == c.Exchanger && a.Kind == c.Kind)) continue;
+            var alert = store.RaiseAlert(c.Exchanger, c.Kind, c.Message, at);
+            log.LogWarning("Alert raised for {ExchangerId}: {Kind}: {Message}", c.Exchanger, c.Kind, c.Message);
+            AppendAlertLine(new { time = at.ToString("O"), exchanger = c.Exchanger, kind = c.Kind, state = "raised", message = c.Message, id = alert.Id });
+        }
+        foreach (var a in active.Where(a => !now.Any(c => c.Exchanger == a.Exchanger && c.Kind == a.Kind)))
+        {
+            store.ClearAlert(a.Id, at);
+            log.LogInformation("Alert cleared for {ExchangerId}: {Kind}", a.Exchanger, a.Kind);
+            AppendAlertLine(new { time = at.ToString("O"), exchanger = a.Exchanger, kind = a.Kind, state = "cleared", message = a.Message, id = a.Id });
+        }
+    }
+
+    private void AppendAlertLine(object line)
+    {
+        Directory.CreateDirectory(settings.Out);
+        File.AppendAllText(AlertsFile, JsonSerializer.Serialize(line) + "\n");
+    }
+}
