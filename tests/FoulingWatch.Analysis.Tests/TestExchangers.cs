@@ -6,17 +6,19 @@ namespace FoulingWatch.Analysis.Tests;
 /// <summary>Builders for invented exchangers and fouling histories (test site "Heron Point").</summary>
 public static class TestExchangers
 {
-    public static ExchangerConfiguration Simple(string maintenance = "[]", string limits = "{ \"foulingResistance\": \"0.0008 m2K/W\" }", string id = "X-1")
+    public static ExchangerConfiguration Simple(string maintenance = "[]", string limits = "{ \"foulingResistance\": \"0.0008 m2K/W\" }", string id = "X-1",
+        string arrangement = "\"counterflow\"", string area = "120 m2", string hotFluid = "{ \"model\": \"constant-cp\", \"cp\": \"2300 J/kgK\" }",
+        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "")
     {
         var json = $$"""
             {
               "site": { "name": "Heron Point (fictional)" },
               "data": { "interval": "1 h", "sources": [ { "files": ["*.none"] } ] },
               "exchangers": [ {
-                "id": "{{id}}", "arrangement": "counterflow", "area": "120 m2",
-                "hot":  { "side": "shell", "fluid": { "model": "constant-cp", "cp": "2300 J/kgK" }, "flow": { "tag": "FH", "unit": "kg/s" },
+                "id": "{{id}}", "arrangement": {{arrangement}}, "area": "{{area}}", "dutyBasis": "{{basis}}",
+                "hot":  { "side": "shell", "fluid": {{hotFluid}}, "flow": { "tag": "FH", "unit": "kg/s" }, {{hotPressure}}
                           "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" }, "designFlow": "25 kg/s" },
-                "cold": { "side": "tube", "fluid": { "model": "constant-cp", "cp": "4100 J/kgK" }, "flow": { "tag": "FC", "unit": "kg/s" },
+                "cold": { "side": "tube", "fluid": {{coldFluid}}, "flow": { "tag": "FC", "unit": "kg/s" },
                           "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "30 kg/s" },
                 "clean": { "method": "datasheet", "u": "500 W/m2K" },
                 "limits": {{limits}},

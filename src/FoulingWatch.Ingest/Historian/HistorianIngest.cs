@@ -218,14 +218,7 @@ public static class HistorianIngest
         {
             if (skip > 0) { skip--; continue; }
             rows++;
-            var outcome = parser.Parse(reader.GetSpan(tsColumn), out var utc);
-            RejectReason? rowReason = outcome switch
-            {
-                TimestampOutcome.Bad => RejectReason.BadTimestamp,
-                TimestampOutcome.NonexistentLocalTime => RejectReason.NonexistentLocalTime,
-                _ => null,
-            };
-            if (rowReason is null && ((windowStart is not null && utc < windowStart) || (windowEnd is not null && utc >= windowEnd))) rowReason = RejectReason.OutsideWindow;
+            var rowReason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
             if (rowReason is null && !seen.Add(utc)) rowReason = RejectReason.Duplicate;
             if (rowReason is { } rr)
             {
@@ -278,14 +271,7 @@ public static class HistorianIngest
             if (!foundIn.ContainsKey(c.Reference.Tag)) foundIn[c.Reference.Tag] = [];
             if (foundIn[c.Reference.Tag].Count == 0 || foundIn[c.Reference.Tag][^1] != file) foundIn[c.Reference.Tag].Add(file);
             var line = dialect.HeaderLine - 1 + reader.LineNumber;
-            var outcome = parser.Parse(reader.GetSpan(tsColumn), out var utc);
-            RejectReason? reason = outcome switch
-            {
-                TimestampOutcome.Bad => RejectReason.BadTimestamp,
-                TimestampOutcome.NonexistentLocalTime => RejectReason.NonexistentLocalTime,
-                _ => null,
-            };
-            if (reason is null && ((windowStart is not null && utc < windowStart) || (windowEnd is not null && utc >= windowEnd))) reason = RejectReason.OutsideWindow;
+            var reason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
             if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn)))) reason = RejectReason.BadQuality;
             c.SeenTimestamps ??= [];
             if (reason is null && !c.SeenTimestamps.Add(utc)) reason = RejectReason.Duplicate;
@@ -306,6 +292,16 @@ public static class HistorianIngest
         return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
             rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
     }
+
+    /// <summary>Why a row's timestamp makes it unusable (unreadable, in the skipped hour, outside the window), or null with its UTC ticks.</summary>
+    private static RejectReason? TimeReason(TimestampParser parser, ReadOnlySpan<byte> field, long? windowStart, long? windowEnd, out long utc) =>
+        parser.Parse(field, out utc) switch
+        {
+            TimestampOutcome.Bad => RejectReason.BadTimestamp,
+            TimestampOutcome.NonexistentLocalTime => RejectReason.NonexistentLocalTime,
+            _ when (windowStart is not null && utc < windowStart) || (windowEnd is not null && utc >= windowEnd) => RejectReason.OutsideWindow,
+            _ => null,
+        };
 
     private static Dictionary<string, string> MarkerSet(HistorianSource source) =>
         source.Markers.Distinct(StringComparer.OrdinalIgnoreCase).ToDictionary(m => m, m => m, StringComparer.OrdinalIgnoreCase);

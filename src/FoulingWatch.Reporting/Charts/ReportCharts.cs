@@ -44,7 +44,15 @@ public static class ReportCharts
     }
 
     private static Chart Render(Plot plot, string name, string title) =>
-        new(name, title, plot.GetImageBytes(Width, Height, ImageFormat.Png), plot.GetSvgXml(Width, Height), Width, Height);
+        new(name, title, plot.GetImageBytes(Width, Height, ImageFormat.Png), StableIds(plot.GetSvgXml(Width, Height)), Width, Height);
+
+    /// <summary>The SVG canvas numbers its clip paths with a process-wide counter; renumber them per file so identical inputs give identical files.</summary>
+    private static string StableIds(string svg)
+    {
+        var map = new Dictionary<string, string>(StringComparer.Ordinal);
+        return System.Text.RegularExpressions.Regex.Replace(svg, "cl_[0-9a-f]+\\b", m =>
+            map.TryGetValue(m.Value, out var id) ? id : map[m.Value] = $"clip{map.Count}");
+    }
 
     private static double X(DateTimeOffset t) => t.UtcDateTime.ToOADate();
 

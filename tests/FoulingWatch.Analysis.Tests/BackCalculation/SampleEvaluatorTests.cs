@@ -7,28 +7,8 @@ namespace FoulingWatch.Analysis.Tests.BackCalculation;
 public class SampleEvaluatorTests
 {
     private static ExchangerConfiguration Exchanger(string arrangement = "\"counterflow\"", string area = "120 m2", string hotFluid = "{ \"model\": \"constant-cp\", \"cp\": \"2300 J/kgK\" }",
-        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "")
-    {
-        var json = $$"""
-            {
-              "site": { "name": "Heron Point (fictional)" },
-              "data": { "interval": "1 h", "sources": [ { "files": ["*.none"] } ] },
-              "exchangers": [ {
-                "id": "X-1", "arrangement": {{arrangement}}, "area": "{{area}}", "dutyBasis": "{{basis}}",
-                "hot":  { "side": "shell", "fluid": {{hotFluid}}, "flow": { "tag": "FH", "unit": "kg/s" }, {{hotPressure}}
-                          "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" }, "designFlow": "25 kg/s" },
-                "cold": { "side": "tube", "fluid": {{coldFluid}}, "flow": { "tag": "FC", "unit": "kg/s" },
-                          "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "30 kg/s" },
-                "clean": { "method": "datasheet", "u": "500 W/m2K" }
-              } ]
-            }
-            """;
-        var dir = Path.Combine(Path.GetTempPath(), "fw-eval", Guid.NewGuid().ToString("N"));
-        Directory.CreateDirectory(dir);
-        File.WriteAllText(Path.Combine(dir, "x.none"), "");
-        File.WriteAllText(Path.Combine(dir, "plant.json"), json);
-        return PlantConfigurationReader.Load(Path.Combine(dir, "plant.json")).Exchangers[0];
-    }
+        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string hotPressure = "") =>
+        TestExchangers.Simple(arrangement: arrangement, area: area, hotFluid: hotFluid, coldFluid: coldFluid, hotPressure: hotPressure);
 
     private static double[] M(double mh, double thi, double tho, double mc, double tci, double tco) =>
         [mh, thi + 273.15, tho + 273.15, mc, tci + 273.15, tco + 273.15];
