@@ -8,7 +8,7 @@ public static class TestExchangers
 {
     public static ExchangerConfiguration Simple(string maintenance = "[]", string limits = "{ \"foulingResistance\": \"0.0008 m2K/W\" }", string id = "X-1",
         string arrangement = "\"counterflow\"", string area = "120 m2", string hotFluid = "{ \"model\": \"constant-cp\", \"cp\": \"2300 J/kgK\" }",
-        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "")
+        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "", string extra = "")
     {
         var json = $$"""
             {
@@ -22,7 +22,7 @@ public static class TestExchangers
                           "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "30 kg/s" },
                 "clean": { "method": "datasheet", "u": "500 W/m2K" },
                 "limits": {{limits}},
-                "maintenance": {{maintenance}}
+                "maintenance": {{maintenance}} {{extra}}
               } ]
             }
             """;

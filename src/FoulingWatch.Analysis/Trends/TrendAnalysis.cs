@@ -71,12 +71,12 @@ public static class TrendAnalysis
             var boundaries = cleanings.Where(c => c.Date < dataEnd).ToList();
             var firstDay = daily[0].Day;
             if (boundaries.Count == 0 || boundaries[0].Date > firstDay)
-                cycles.Add(FitCycle(firstDay, boundaries.Count > 0 ? boundaries[0].Date : dataEnd, false, null, daily));
+                cycles.Add(FitCycle(firstDay, boundaries.Count > 0 ? boundaries[0].Date : dataEnd, false, null, daily, history));
             for (var i = 0; i < boundaries.Count; i++)
             {
                 var end = i + 1 < boundaries.Count ? boundaries[i + 1].Date : dataEnd;
                 if (end <= firstDay) continue;
-                cycles.Add(FitCycle(boundaries[i].Date, end, true, boundaries[i].Source, daily));
+                cycles.Add(FitCycle(boundaries[i].Date, end, true, boundaries[i].Source, daily, history));
             }
         }
         var effects = cleanings.Select(c => Effect(c, daily, cycles)).ToList();
@@ -84,11 +84,12 @@ public static class TrendAnalysis
         var seed = StableSeed(x.Id);
         var forecast = current is null ? null : Forecast(history, current, seed);
         var rate = current is null ? null : Rate(current);
-        return new TrendResult(daily, cycles, effects, forecast, rate, ThresholdNote);
+        return new TrendResult(daily, cycles, effects, forecast, rate, x.Threshold is null ? ThresholdNote : null);
     }
 
-    private static FoulingCycle FitCycle(DateTimeOffset start, DateTimeOffset end, bool known, CleaningSource? source, List<DailyPoint> daily)
+    private static FoulingCycle FitCycle(DateTimeOffset start, DateTimeOffset end, bool known, CleaningSource? source, List<DailyPoint> daily, ExchangerHistory history)
     {
+        var threshold = history.Exchanger.Threshold is { } ts ? ThresholdFouling.ForCycle(history, ts, start, end) : null;
         var points = daily.Where(d => d.Day >= start && d.Day < end).ToList();
         if (points.Count < MinimumDays)
             return new FoulingCycle(start, end, known, source, points, [], null, 0,
@@ -98,7 +99,7 @@ public static class TrendAnalysis
         List<ModelCandidate> candidates = [];
         for (var pass = 0; pass < 3; pass++)
         {
-            candidates = FitAll(start, used);
+            candidates = FitAll(start, used, threshold);
             var best = candidates.Where(c => c.Fit is not null).MinBy(c => c.Aicc);
             if (best?.Fit is null) break;
             // Iterative rejection of points more than 4 standard residuals off the best model.
@@ -123,13 +124,13 @@ public static class TrendAnalysis
     private static double T(DateTimeOffset start, DailyPoint p) => (p.Day - start).TotalDays + 0.5;
     private static double Sigma(DailyPoint p) => Math.Max(p.Sigma, 1e-7);
 
-    private static List<ModelCandidate> FitAll(DateTimeOffset start, List<DailyPoint> points)
+    private static List<ModelCandidate> FitAll(DateTimeOffset start, List<DailyPoint> points, ThresholdFouling? threshold)
     {
         var t = points.Select(p => T(start, p)).ToArray();
         var y = points.Select(p => p.FoulingResistance).ToArray();
         var w = points.Select(p => 1 / (Sigma(p) * Sigma(p))).ToArray();
         var list = new List<ModelCandidate>();
-        foreach (var m in Models)
+        foreach (var m in threshold is null ? Models : [.. Models, threshold])
         {
             var fit = LeastSquares.Fit(m, t, y, w);
             if (fit is null) { list.Add(new ModelCandidate(m, null, double.PositiveInfinity, double.NaN, "the fit did not converge")); continue; }

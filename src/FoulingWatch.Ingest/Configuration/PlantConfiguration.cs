@@ -120,6 +120,10 @@ public sealed record MaintenanceEvent(DateTimeOffset Date, string Action, string
     public bool IsCleaning => Action.Equals("cleaned", StringComparison.OrdinalIgnoreCase);
 }
 
+/// <summary>What the threshold fouling model needs: the tube-side Reynolds number at design flow, the Prandtl number,
+/// the deposition activation energy (J/mol) and how far the film temperature lies above the tube-side bulk mean (K).</summary>
+public sealed record ThresholdSettings(double ReynoldsAtDesign, double Prandtl, double ActivationEnergy, double FilmTemperatureRise);
+
 /// <summary>Cost of one cleaning (in the site currency) and its downtime.</summary>
 public sealed record CleaningSettings(double? Cost, TimeSpan? Downtime, double? DowntimeCostPerDay);
 
@@ -138,7 +142,8 @@ public sealed record ExchangerConfiguration(
     ExchangerLimits Limits,
     CleaningSettings Cleaning,
     IReadOnlyList<MaintenanceEvent> Maintenance,
-    EconomicsSettings? Economics)
+    EconomicsSettings? Economics,
+    ThresholdSettings? Threshold = null)
 {
     public StreamConfiguration Tube => Hot.Side == ExchangerSide.Tube ? Hot : Cold;
     public StreamConfiguration Shell => Hot.Side == ExchangerSide.Shell ? Hot : Cold;

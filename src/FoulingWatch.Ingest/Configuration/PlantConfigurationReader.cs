@@ -397,10 +397,32 @@ public static class PlantConfigurationReader
             if (date is not null) maintenance.Add(new MaintenanceEvent(date.Value, action, note));
         }
         maintenance.Sort((a, b) => a.Date.CompareTo(b.Date));
+        var threshold = ReadThreshold(n.Object("threshold"));
         n.Done();
         if (id is null || arrangement is null || area is null || hot is null || cold is null || basis is null || clean is null) return null;
         return new ExchangerConfiguration(id, service, n.Path, arrangement, area.Value, hot, cold, basis.Value, balance, downtime,
-            clean, limits, cleaning, maintenance, exEconomics);
+            clean, limits, cleaning, maintenance, exEconomics, threshold);
+    }
+
+    private static ThresholdSettings? ReadThreshold(JsonNode? n)
+    {
+        if (n is null) return null;
+        var re = n.Number("reynoldsAtDesign", required: true, min: 100, max: 1e7);
+        var pr = n.Number("prandtl", required: true, min: 0.5, max: 1e4);
+        double? energy = null;
+        var text = n.String("activationEnergy", required: true);
+        if (text is not null)
+        {
+            var t = text.Trim();
+            var scale = t.EndsWith("kJ/mol", StringComparison.OrdinalIgnoreCase) ? 1e3 : t.EndsWith("J/mol", StringComparison.OrdinalIgnoreCase) ? 1.0 : double.NaN;
+            var number = t.Split(' ', StringSplitOptions.RemoveEmptyEntries)[0];
+            if (double.IsNaN(scale) || !double.TryParse(number, NumberStyles.Float, CultureInfo.InvariantCulture, out var e) || e <= 0)
+                n.Error("activationEnergy", $"'{text}' must be a positive energy per mole, e.g. \"48 kJ/mol\" or \"48000 J/mol\".");
+            else energy = e * scale;
+        }
+        var rise = n.Quantity("filmTemperatureRise", Dimension.TemperatureDifference, minSi: 0) ?? 0;
+        n.Done();
+        return re is null || pr is null || energy is null ? null : new ThresholdSettings(re.Value, pr.Value, energy.Value, rise);
     }
 
     private static double? MoneyPerDay(JsonNode n, string key, string currency)
