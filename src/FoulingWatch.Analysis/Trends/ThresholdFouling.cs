@@ -119,10 +119,14 @@ public sealed class ThresholdFouling : FoulingModel
         return rate > 0 ? _t[^1] + (limit - Value(p, _t[^1])) / rate : double.PositiveInfinity;
     }
 
+    // Deposition and removal constants are non-negative by their meaning; ±1 m²·K/W bounds the offset (MathNet needs finite bounds).
+    public override double[] LowerBounds(double[] t, double[] y) => [-1.0, 0, 0];
+    public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, 1.0];
+
     public override IEnumerable<double[]> StartingPoints(double[] t, double[] y)
     {
         var slope = (y[^1] - y[0]) / Math.Max(1, t[^1] - t[0]);
-        yield return [y[0], Math.Max(slope, 1e-9), 0];
+        yield return [y[0], Math.Max(slope, 1e-9), 1e-12];
         yield return [y[0], Math.Max(2 * slope, 1e-9), Math.Max(slope, 1e-9)];
     }
 }
