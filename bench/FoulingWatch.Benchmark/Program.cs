@@ -71,7 +71,10 @@ static (long Rows, long Numbers, double) ReadAndParse(string path)
     {
         rows++;
         for (var i = 1; i < reader.FieldCount; i++)
-            if (csFastFloat.FastDoubleParser.TryParseDouble(reader.GetSpan(i), out double v)) { sum += v; numbers++; }
+        {
+            var span = reader.GetSpan(i);
+            if (csFastFloat.FastDoubleParser.TryParseDouble(span, out int used, out double v, System.Globalization.NumberStyles.Float, (byte)'.') && used == span.Length) { sum += v; numbers++; }
+        }
     }
     return (rows, numbers + (sum == -1 ? 1 : 0), 0);
 }
