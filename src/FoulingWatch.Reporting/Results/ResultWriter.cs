@@ -27,7 +27,8 @@ public static class ResultWriter
         Directory.CreateDirectory(outDirectory);
         foreach (var x in result.Exchangers)
             TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
-                x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList());
+                x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList(),
+                x.Economics.Pricing?.MoneyPerJoule);
         AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
         PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
         WriteReport(result, outDirectory);

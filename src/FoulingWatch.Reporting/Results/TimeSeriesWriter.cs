@@ -15,11 +15,14 @@ public static class TimeSeriesWriter
     public static readonly string[] ExtraColumns =
     [
         "rf_fit_m2K_per_W", "balance_mismatch", "lmtd_K", "f_correction", "duty_clean_W", "hot_outlet_clean_K", "cold_outlet_clean_K",
-        "hot_flow_kg_per_s", "hot_inlet_K", "hot_outlet_K", "cold_flow_kg_per_s", "cold_inlet_K", "cold_outlet_K", "detail",
+        "hot_flow_kg_per_s", "hot_inlet_K", "hot_outlet_K", "cold_flow_kg_per_s", "cold_inlet_K", "cold_outlet_K",
+        "fouling_cost_per_day", "recon_global_test", "recon_gross_error", "recon_z_hot_flow", "recon_z_hot_inlet", "recon_z_hot_outlet",
+        "recon_z_cold_flow", "recon_z_cold_inlet", "recon_z_cold_outlet", "detail",
     ];
 
     /// <param name="fitted">Fitted Rf per sample (same index), or null.</param>
-    public static void Write(string path, ExchangerHistory history, IReadOnlyList<double>? fitted = null)
+    /// <param name="moneyPerJoule">Price of lost duty (currency per J), or null when the exchanger is not priced.</param>
+    public static void Write(string path, ExchangerHistory history, IReadOnlyList<double>? fitted = null, double? moneyPerJoule = null)
     {
         var sb = new StringBuilder(history.Samples.Count * 200);
         sb.AppendJoin(',', ContractColumns.Concat(ExtraColumns)).Append('\n');
@@ -35,7 +38,12 @@ public static class TimeSeriesWriter
                 NumberText.Csv(e.Cleanliness), NumberText.Csv(e.LostDuty),
                 NumberText.Csv(fitted is null ? double.NaN : fitted[k]), NumberText.Csv(e.BalanceMismatch), NumberText.Csv(e.Lmtd), NumberText.Csv(e.CorrectionFactor),
                 NumberText.Csv(e.DutyClean), NumberText.Csv(e.HotOutletClean), NumberText.Csv(e.ColdOutletClean),
-                .. m.Select(NumberText.Csv), Quote(e.Detail),
+                .. m.Select(NumberText.Csv),
+                NumberText.Csv(moneyPerJoule is { } price && s.Status == SampleStatus.Ok ? Math.Max(0, e.LostDuty) * 86400 * price : double.NaN),
+                NumberText.Csv(e.Reconciliation?.GlobalTest ?? double.NaN),
+                e.Reconciliation is null ? "" : e.Reconciliation.GrossError ? "1" : "0",
+                .. (e.Reconciliation?.NormalisedAdjustments ?? new double[Measurement.Count].Select(_ => double.NaN).ToArray()).Select(NumberText.Csv),
+                Quote(e.Detail),
             ];
             sb.AppendJoin(',', cells).Append('\n');
         }
