@@ -14,7 +14,9 @@ public sealed record CurrentState(DateTimeOffset? LastUsable, int Samples, doubl
 public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend, ExchangerEconomics Economics);
 
 /// <summary>Everything computed for the plant in one run.</summary>
-public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers, FleetCleaningPlan Plan);
+/// <param name="AuditPeriod">Period [From, To) of the energy audit; null: the last 12 months of data.</param>
+public sealed record PlantResult(PlantConfiguration Configuration, IngestResult Ingest, IReadOnlyList<ExchangerResult> Exchangers, FleetCleaningPlan Plan,
+    (DateTimeOffset From, DateTimeOffset To)? AuditPeriod = null);
 
 /// <summary>Runs the pipeline on a plant: ingest, then per exchanger back-calculation.</summary>
 public static class PlantAnalysis

@@ -8,11 +8,14 @@ namespace FoulingWatch.Cli;
 /// <summary><c>foulingwatch analyze</c>: the whole pipeline on a plant, results into a folder.</summary>
 public static class AnalyzeCommand
 {
-    public static int Run(string configPath, string outDirectory, bool json, bool quiet, TextWriter output, TextWriter error)
+    public static int Run(string configPath, string outDirectory, bool json, bool quiet, TextWriter output, TextWriter error,
+        DateTimeOffset? auditFrom = null, DateTimeOffset? auditTo = null)
     {
         var config = PlantConfigurationReader.Load(configPath);
         var progress = quiet || json || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null : new Progress<(string Stage, double Fraction)>(p => error.Write($"\r{p.Stage,-60}"));
         var result = PlantAnalysis.Run(config, progress);
+        if (auditFrom is not null || auditTo is not null)
+            result = result with { AuditPeriod = (auditFrom ?? result.Ingest.GridStart, auditTo ?? result.Ingest.IntervalStart(result.Ingest.IntervalCount)) };
         if (progress is not null) error.Write("\r" + new string(' ', 60) + "\r");
         ResultWriter.Write(result, outDirectory);
         if (json)

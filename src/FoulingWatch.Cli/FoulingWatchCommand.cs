@@ -40,8 +40,12 @@ public static class FoulingWatchCommand
         analyze.Options.Add(outOption);
         analyze.Options.Add(jsonOption);
         analyze.Options.Add(quietOption);
+        var auditFrom = new Option<DateTimeOffset?>("--audit-from") { Description = "Start of the energy-audit period (UTC date or time; default: 12 months before the end of the data)." };
+        var auditTo = new Option<DateTimeOffset?>("--audit-to") { Description = "End (exclusive) of the energy-audit period (default: the end of the data)." };
+        analyze.Options.Add(auditFrom);
+        analyze.Options.Add(auditTo);
         analyze.SetAction(p => Guard(error, () => AnalyzeCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(outOption)!.FullName,
-            p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
+            p.GetValue(jsonOption), p.GetValue(quietOption), output, error, ToUtc(p.GetValue(auditFrom)), ToUtc(p.GetValue(auditTo)))));
         root.Subcommands.Add(analyze);
 
         var plan = new Command("plan", "Cost of fouling and the cleaning plan: which exchanger to clean in which shutdown window, and what it saves.");
@@ -92,6 +96,8 @@ public static class FoulingWatchCommand
         var parsed = root.Parse(args);
         return parsed.Invoke(new InvocationConfiguration { Output = output, Error = error });
     }
+
+    private static DateTimeOffset? ToUtc(DateTimeOffset? t) => t?.ToUniversalTime();
 
     /// <summary>Runs a command body, turning known failures into a message on stderr and the documented exit code.</summary>
     public static int Guard(TextWriter error, Func<int> body)

@@ -131,3 +131,26 @@ public class ReadmeTests
         Assert.Contains("valid; site Kestrel Bay refinery (fictional), 1 exchanger(s)", output);
     }
 }
+
+public class AuditTests
+{
+    // The audit over a chosen period equals the sum of the audits of its parts (energy is additive).
+    [Fact]
+    public void The_energy_audit_over_a_period_adds_up_from_its_parts()
+    {
+        using var plant = new SamplePlantCopy();
+        double Gj(string from, string to, string name)
+        {
+            Assert.Equal(0, SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out(name), "--quiet", "--audit-from", from, "--audit-to", to).Code);
+            using var doc = System.Text.Json.JsonDocument.Parse(File.ReadAllText(Path.Combine(plant.Out(name), "summary.json")));
+            var audit = doc.RootElement.GetProperty("energy_audit");
+            Assert.Equal(from, audit.GetProperty("period").GetProperty("from").GetString()![..10]);
+            return audit.GetProperty("site").GetProperty("lost_heat_GJ").GetDouble();
+        }
+        var whole = Gj("2025-12-01", "2025-12-21", "w");
+        var first = Gj("2025-12-01", "2025-12-11", "a");
+        var second = Gj("2025-12-11", "2025-12-21", "b");
+        Assert.True(whole > 0);
+        Assert.Equal(whole, first + second, whole * 1e-6);
+    }
+}

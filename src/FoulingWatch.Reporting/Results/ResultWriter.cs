@@ -262,7 +262,13 @@ public static class ResultWriter
     /// <summary>Energy audit over the last 12 months of data: lost heat recovery, fuel, CO2 and money per exchanger and for the site.</summary>
     public static object Audit(PlantResult r)
     {
-        var rows = r.Exchangers.Where(x => x.Economics.LastYear is not null).Select(x => (x.History.Exchanger.Id, T: x.Economics.LastYear!)).ToList();
+        var rows = new List<(string Id, CostTotals T)>();
+        foreach (var x in r.Exchangers)
+        {
+            if (x.Economics.Pricing is not { } pricing || x.Economics.LastYear is not { } lastYear) continue;
+            var (from, to) = r.AuditPeriod ?? (lastYear.From, lastYear.To);
+            rows.Add((x.History.Exchanger.Id, FoulingEconomics.Totals(x.History, FoulingEconomics.LostEnergyPerInterval(x.History, r.Ingest.Interval), pricing, from, to)));
+        }
         return new
         {
             period = rows.Count > 0 ? new { from = NumberText.Utc(rows[0].T.From), to = NumberText.Utc(rows[0].T.To) } : null,
