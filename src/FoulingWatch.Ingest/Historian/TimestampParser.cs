@@ -43,7 +43,7 @@ public sealed class TimestampParser
     public TimestampOutcome Parse(ReadOnlySpan<byte> field, out long utcTicks)
     {
         utcTicks = 0;
-        field = field.Trim((byte)' ');
+        field = field.Trim(" \t"u8);
         if (field.Length >= 2 && field[0] == (byte)'"' && field[^1] == (byte)'"') field = field[1..^1];
         if (field.IsEmpty) return TimestampOutcome.Bad;
 
