@@ -267,13 +267,13 @@ public static class HistorianIngest
         {
             if (skip > 0) { skip--; continue; }
             rows++;
-            var tag = Encoding.UTF8.GetString(reader.GetSpan(tagColumn).Trim(" \t"u8));
+            var tag = Encoding.UTF8.GetString(reader.GetSpan(tagColumn).TrimBlanks());
             if (!byName.TryGetValue(tag, out var c)) { otherRows++; continue; }
             if (!foundIn.ContainsKey(c.Reference.Tag)) foundIn[c.Reference.Tag] = [];
             if (foundIn[c.Reference.Tag].Count == 0 || foundIn[c.Reference.Tag][^1] != file) foundIn[c.Reference.Tag].Add(file);
             var line = dialect.HeaderLine - 1 + reader.LineNumber;
             var reason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
-            if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn).Trim(" \t"u8)))) reason = RejectReason.BadQuality;
+            if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn).TrimBlanks()))) reason = RejectReason.BadQuality;
             c.SeenTimestamps ??= [];
             if (reason is null && !c.SeenTimestamps.Add(utc)) reason = RejectReason.Duplicate;
             if (reason is { } r)
@@ -312,7 +312,7 @@ public static class HistorianIngest
     private static void AddValue(Channel c, CsvReader reader, int column, long bin, long utc, byte decimalByte, Dictionary<string, string> markers,
         string file, long lineOffset, RawValueSink? sink)
     {
-        var span = reader.GetSpan(column).Trim(" \t"u8);
+        var span = reader.GetSpan(column).TrimBlanks();
         if (!span.IsEmpty && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
             && consumed == span.Length && double.IsFinite(reading))
         {

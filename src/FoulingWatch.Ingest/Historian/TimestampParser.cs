@@ -6,6 +6,18 @@ namespace FoulingWatch.Ingest.Historian;
 
 public enum TimestampOutcome { Ok, Bad, NonexistentLocalTime }
 
+internal static class Blanks
+{
+    /// <summary>The field without leading and trailing spaces and tabs (a plain loop: Span.Trim with a set of values is several times slower here).</summary>
+    public static ReadOnlySpan<byte> TrimBlanks(this ReadOnlySpan<byte> s)
+    {
+        int a = 0, b = s.Length;
+        while (a < b && (s[a] == (byte)' ' || s[a] == (byte)'\t')) a++;
+        while (b > a && (s[b - 1] == (byte)' ' || s[b - 1] == (byte)'\t')) b--;
+        return s[a..b];
+    }
+}
+
 /// <summary>
 /// Turns historian timestamps into UTC. Formats: ISO 8601 with offset or Z (taken as written); ISO-like local
 /// times "yyyy-MM-dd[ T]HH:mm[:ss[.fff]]" in the site time zone; a configured .NET format string; or
@@ -43,7 +55,7 @@ public sealed class TimestampParser
     public TimestampOutcome Parse(ReadOnlySpan<byte> field, out long utcTicks)
     {
         utcTicks = 0;
-        field = field.Trim(" \t"u8);
+        field = field.TrimBlanks();
         if (field.Length >= 2 && field[0] == (byte)'"' && field[^1] == (byte)'"') field = field[1..^1];
         if (field.IsEmpty) return TimestampOutcome.Bad;
 
