@@ -155,6 +155,19 @@ public static class HistorianIngest
         return new IngestResult(new DateTimeOffset(first * interval, TimeSpan.Zero), config.Data.Interval, count, series, outLedgers, files, 0);
     }
 
+    /// <summary>The reader positioned on each data row in turn: after the header and the unit/description rows.</summary>
+    private static IEnumerable<CsvReader> DataRows(string file, FileDialect dialect)
+    {
+        using var reader = OpenReader(file, dialect);
+        reader.ReadHeader();
+        var skip = dialect.MetadataRows;
+        while (reader.Read())
+        {
+            if (skip > 0) { skip--; continue; }
+            yield return reader;
+        }
+    }
+
     private static CsvReader OpenReader(string file, FileDialect dialect)
     {
         var stream = ExportStream.OpenAt(file, dialect.HeaderByteOffset);
@@ -212,12 +225,8 @@ public static class HistorianIngest
         var markers = MarkerSet(source);
         long rows = 0;
         var name = Path.GetFileName(file);
-        using var reader = OpenReader(file, dialect);
-        reader.ReadHeader();
-        var skip = dialect.MetadataRows;
-        while (reader.Read())
+        foreach (var reader in DataRows(file, dialect))
         {
-            if (skip > 0) { skip--; continue; }
             rows++;
             var rowReason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
             if (rowReason is null && !seen.Add(utc)) rowReason = RejectReason.Duplicate;
@@ -260,12 +269,8 @@ public static class HistorianIngest
             .ToDictionary(c => c.Reference.Tag, StringComparer.OrdinalIgnoreCase);
         long rows = 0;
         var name = Path.GetFileName(file);
-        using var reader = OpenReader(file, dialect);
-        reader.ReadHeader();
-        var skip = dialect.MetadataRows;
-        while (reader.Read())
+        foreach (var reader in DataRows(file, dialect))
         {
-            if (skip > 0) { skip--; continue; }
             rows++;
             var tag = Encoding.UTF8.GetString(reader.GetSpan(tagColumn).TrimBlanks());
             if (!byName.TryGetValue(tag, out var c)) { otherRows++; continue; }

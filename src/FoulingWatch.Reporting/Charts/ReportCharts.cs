@@ -158,20 +158,22 @@ public static class ReportCharts
             groups.Select(g => DailyFouling.Median(g.Select(s => f(s.Evaluation) * scale).Order().ToArray())).ToArray());
     }
 
+    private static void Line(Plot plot, double[] xs, double[] ys, Color color, string legend, bool dashed = false)
+    {
+        var line = plot.Add.ScatterLine(xs, ys);
+        line.Color = color;
+        line.LineWidth = 2;
+        line.LegendText = legend;
+        if (dashed) line.LinePattern = LinePattern.Dashed;
+    }
+
     public static Chart UChart(ExchangerResult x)
     {
         var plot = NewPlot($"{x.History.Exchanger.Id}: actual and clean U at today's flows", "U (W/m²·K)");
         var (xa, ya) = DailyMedian(x, e => e.UActual, 1);
         var (xc, yc) = DailyMedian(x, e => e.UClean, 1);
-        var a = plot.Add.ScatterLine(xa, ya);
-        a.Color = Blue;
-        a.LineWidth = 2;
-        a.LegendText = "U actual (daily median)";
-        var c = plot.Add.ScatterLine(xc, yc);
-        c.Color = Green;
-        c.LineWidth = 2;
-        c.LinePattern = LinePattern.Dashed;
-        c.LegendText = "U clean at the same flows";
+        Line(plot, xa, ya, Blue, "U actual (daily median)");
+        Line(plot, xc, yc, Green, "U clean at the same flows", dashed: true);
         plot.ShowLegend(Alignment.LowerLeft);
         return Render(plot, "u", "U actual against clean U");
     }
@@ -181,14 +183,8 @@ public static class ReportCharts
         var plot = NewPlot($"{x.History.Exchanger.Id}: duty and lost duty", "duty (kW)");
         var (xd, yd) = DailyMedian(x, e => e.Duty, 1e-3);
         var (xl, yl) = DailyMedian(x, e => e.LostDuty, 1e-3);
-        var d = plot.Add.ScatterLine(xd, yd);
-        d.Color = Blue;
-        d.LineWidth = 2;
-        d.LegendText = "duty (daily median)";
-        var l = plot.Add.ScatterLine(xl, yl);
-        l.Color = Vermillion;
-        l.LineWidth = 2;
-        l.LegendText = "lost duty against clean";
+        Line(plot, xd, yd, Blue, "duty (daily median)");
+        Line(plot, xl, yl, Vermillion, "lost duty against clean");
         plot.ShowLegend(Alignment.UpperLeft);
         return Render(plot, "duty", "Duty and lost duty");
     }
