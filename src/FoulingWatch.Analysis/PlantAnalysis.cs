@@ -34,7 +34,7 @@ public static class PlantAnalysis
         for (var i = 0; i < config.Exchangers.Count; i++)
         {
             var x = config.Exchangers[i];
-            progress?.Report(($"back-calculating {x.Id}", i / (double)config.Exchangers.Count));
+            progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest);
             var current = Current(history);
             var trend = TrendAnalysis.Run(history);

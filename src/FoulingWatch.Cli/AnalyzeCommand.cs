@@ -12,11 +12,11 @@ public static class AnalyzeCommand
         DateTimeOffset? auditFrom = null, DateTimeOffset? auditTo = null)
     {
         var config = PlantConfigurationReader.Load(configPath);
-        var progress = quiet || json || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null : new Progress<(string Stage, double Fraction)>(p => error.Write($"\r{p.Stage,-60}"));
+        var progress = quiet || json || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null : new Progress<(string Stage, double Fraction)>(p => error.Write("\r" + ProgressLine(p.Stage, p.Fraction)));
         var result = PlantAnalysis.Run(config, progress);
         if (auditFrom is not null || auditTo is not null)
             result = result with { AuditPeriod = (auditFrom ?? result.Ingest.GridStart, auditTo ?? result.Ingest.IntervalStart(result.Ingest.IntervalCount)) };
-        if (progress is not null) error.Write("\r" + new string(' ', 60) + "\r");
+        if (progress is not null) error.Write("\r" + new string(' ', 90) + "\r");
         ResultWriter.Write(result, outDirectory);
         if (json)
         {
@@ -83,6 +83,15 @@ public static class AnalyzeCommand
         { BeyondHorizon: true } => "beyond horizon",
         _ => $"{f.Date:yyyy-MM-dd} ({(f.Low is { } lo ? lo.ToString("yyyy-MM") : "now")}…{(f.High is { } hi ? hi.ToString("yyyy-MM") : "later")})",
     };
+
+    /// <summary>A one-line progress bar for an interactive terminal: "[#######.........]  45 %  reading file.csv".</summary>
+    public static string ProgressLine(string stage, double fraction)
+    {
+        const int width = 24;
+        var filled = (int)Math.Round(Math.Clamp(fraction, 0, 1) * width);
+        var text = $"[{new string('#', filled)}{new string('.', width - filled)}] {fraction * 100,3:0} %  {stage}";
+        return text.Length > 90 ? text[..90] : text.PadRight(90);
+    }
 
     private static string F(double v, string format) => double.IsFinite(v) ? v.ToString(format, CultureInfo.InvariantCulture) : "—";
 

@@ -154,3 +154,14 @@ public class AuditTests
         Assert.Equal(whole, first + second, whole * 1e-6);
     }
 }
+
+public class ProgressLineTests
+{
+    [Fact]
+    public void The_progress_bar_fills_with_the_fraction()
+    {
+        Assert.StartsWith("[############............]  50 %  reading x.csv", AnalyzeCommand.ProgressLine("reading x.csv", 0.5));
+        Assert.StartsWith("[........................]   0 %", AnalyzeCommand.ProgressLine("start", 0));
+        Assert.Equal(90, AnalyzeCommand.ProgressLine(new string('x', 200), 1).Length);
+    }
+}
