@@ -46,6 +46,22 @@ public sealed record IngestResult(
 /// </remarks>
 public static class HistorianIngest
 {
+    /// <summary>A wide column's conversion resolved once: SI = reading·Scale + Offset (density folded in), its range, and where it accumulates.</summary>
+    private sealed class ColumnPlan(int index, Channel channel)
+    {
+        public readonly int Index = index;
+        public readonly Channel Channel = channel;
+        public readonly string Tag = channel.Reference.Tag;
+        public readonly double Scale = channel.Reference.Unit.Scale * (channel.Reference.Density ?? 1.0);
+        public readonly double Offset = channel.Reference.Unit.Offset * (channel.Reference.Density ?? 1.0);
+        public readonly double Minimum = channel.Reference.RangeMinimum;
+        public readonly double Maximum = channel.Reference.RangeMaximum;
+        public readonly TagLedger Ledger = channel.Ledger;
+        public readonly BinAccumulator Bins = channel.Bins;
+
+        public static ColumnPlan Of(int index, Channel c) => new(index, c);
+    }
+
     private sealed class Channel
     {
         public required TagReference Reference;
@@ -223,6 +239,7 @@ public static class HistorianIngest
         var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
         var decimalByte = (byte)dialect.DecimalSeparator;
         var markers = MarkerSet(source);
+        var plans = columns.Select(c => ColumnPlan.Of(c.Index, c.Channel)).ToArray();
         long rows = 0;
         var name = Path.GetFileName(file);
         foreach (var reader in DataRows(file, dialect))
@@ -239,8 +256,26 @@ public static class HistorianIngest
                 continue;
             }
             var bin = utc / interval;
-            foreach (var (index, c) in columns)
-                AddValue(c, reader, index, bin, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
+            // Hot loop: parse, convert with the column's resolved scale and offset, range-check, bin. Anything else
+            // (empty, marker, text, out of range) goes to AddValue, which works out and counts the reason.
+            for (var j = 0; j < plans.Length; j++)
+            {
+                var plan = plans[j];
+                var span = reader.GetSpan(plan.Index).TrimBlanks();
+                if (span.Length > 0 && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
+                    && consumed == span.Length)
+                {
+                    var si = reading * plan.Scale + plan.Offset;
+                    if (si >= plan.Minimum && si <= plan.Maximum)
+                    {
+                        plan.Ledger.CountUsed();
+                        plan.Bins.Add(bin, si);
+                        sink?.Add(plan.Tag, utc, si);
+                        continue;
+                    }
+                }
+                AddValue(plan.Channel, reader, plan.Index, bin, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
+            }
         }
         return (rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard);
     }
