@@ -26,8 +26,8 @@ public class IapwsIf97Tests
         Close(w, st.SpeedOfSound);
     }
 
-    // Source: IAPWS R7-97(2012), Table 15 (region 2 verification values), transcribed from memory;
-    // the agreement to 1e-8 in all six properties is the check (a transcription slip would not match).
+    // Source: IAPWS R7-97(2012), Table 15 (region 2 verification values), written down from memory;
+    // the agreement to 1e-8 in all six properties is the check (a slip in copying them would not match).
     [Theory]
     [InlineData(300, 0.0035, 0.394913866e2, 0.254991145e4, 0.241169160e4, 0.852238967e1, 0.191300162e1, 0.427920172e3)]
     [InlineData(700, 0.0035, 0.923015898e2, 0.333568375e4, 0.301262819e4, 0.101749996e2, 0.208141274e1, 0.644289068e3)]
