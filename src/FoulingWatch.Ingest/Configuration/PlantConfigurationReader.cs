@@ -242,32 +242,43 @@ public static class PlantConfigurationReader
         return new EconomicsSettings(currency, fuelData?.Key ?? fuel, fuelPrice, efficiency, co2, co2Price, lostCooling);
     }
 
+    /// <summary>Reads "8.5 EUR/GJ": the amount and the unit after the slash, checking the currency; null after reporting the problem.</summary>
+    private static (double Amount, string PerUnit)? CurrencyPer(JsonNode n, string key, string currency, string example)
+    {
+        var text = n.String(key);
+        if (text is null) return null;
+        var (amount, unit) = SplitMoney(n, key, text, example);
+        if (unit is null) return null;
+        var slash = unit.IndexOf('/');
+        if (slash < 0) { n.Error(key, $"'{text}' needs a unit after the currency, e.g. {example}."); return null; }
+        var cur = unit[..slash].Trim();
+        if (!cur.Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' is in {cur}, but the site currency is {currency}; convert it or change economics.currency."); return null; }
+        return (amount, unit[(slash + 1)..].Trim());
+    }
+
     /// <summary>Reads "8.5 EUR/GJ" as money per SI unit of the dimension.</summary>
     private static double? MoneyPer(JsonNode n, string key, string currency, Dimension per)
     {
-        var text = n.String(key);
-        if (text is null) return null;
-        var (amount, unit) = SplitMoney(n, key, text, $"\"8.5 {currency}/GJ\"");
-        if (unit is null) return null;
-        var slash = unit.IndexOf('/');
-        if (slash < 0) { n.Error(key, $"'{text}' needs a unit after the currency, e.g. \"8.5 {currency}/GJ\"."); return null; }
-        var cur = unit[..slash].Trim();
-        if (!cur.Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' is in {cur}, but the site currency is {currency}; convert it or change economics.currency."); return null; }
-        if (!UnitCatalog.TryResolve(unit[(slash + 1)..], per, out var u)) { n.Error(key, $"'{unit[(slash + 1)..]}' is not {UnknownUnitException.WithArticle(per)} unit; use {string.Join(", ", UnitCatalog.Accepted(per))}."); return null; }
-        return amount / u.Scale;
+        if (CurrencyPer(n, key, currency, $"\"8.5 {currency}/GJ\"") is not { } v) return null;
+        if (!UnitCatalog.TryResolve(v.PerUnit, per, out var u)) { n.Error(key, $"'{v.PerUnit}' is not {UnknownUnitException.WithArticle(per)} unit; use {string.Join(", ", UnitCatalog.Accepted(per))}."); return null; }
+        return v.Amount / u.Scale;
     }
 
+    /// <summary>Reads "80 EUR/t" as money per kg.</summary>
     private static double? MoneyPerMass(JsonNode n, string key, string currency)
     {
-        var text = n.String(key);
-        if (text is null) return null;
-        var (amount, unit) = SplitMoney(n, key, text, $"\"80 {currency}/t\"");
-        if (unit is null) return null;
-        var parts = unit.Split('/');
-        if (parts.Length != 2 || !parts[0].Trim().Equals(currency, StringComparison.OrdinalIgnoreCase)) { n.Error(key, $"'{text}' must be in {currency} per mass, e.g. \"80 {currency}/t\"."); return null; }
-        double? kg = parts[1].Trim().ToLowerInvariant() switch { "t" or "tonne" or "tco2" => 1000, "kg" or "kgco2" => 1, _ => null };
-        if (kg is null) { n.Error(key, $"'{parts[1]}' is not a mass unit here; use t or kg."); return null; }
-        return amount / kg;
+        if (CurrencyPer(n, key, currency, $"\"80 {currency}/t\"") is not { } v) return null;
+        double? kg = v.PerUnit.ToLowerInvariant() switch { "t" or "tonne" or "tco2" => 1000, "kg" or "kgco2" => 1, _ => null };
+        if (kg is null) { n.Error(key, $"'{v.PerUnit}' is not a mass unit here; use t or kg."); return null; }
+        return v.Amount / kg;
+    }
+
+    /// <summary>Reads "20000 EUR/d" as money per day.</summary>
+    private static double? MoneyPerDay(JsonNode n, string key, string currency)
+    {
+        if (CurrencyPer(n, key, currency, $"\"20000 {currency}/d\"") is not { } v) return null;
+        if (!UnitCatalog.TryResolve(v.PerUnit, Dimension.Duration, out var d)) { n.Error(key, $"'{v.PerUnit}' is not a duration unit; use {string.Join(", ", UnitCatalog.Accepted(Dimension.Duration))}."); return null; }
+        return v.Amount / d.Scale * 86400;
     }
 
     private static double? Co2Factor(JsonNode n, string key)
@@ -423,18 +434,6 @@ public static class PlantConfigurationReader
         var rise = n.Quantity("filmTemperatureRise", Dimension.TemperatureDifference, minSi: 0) ?? 0;
         n.Done();
         return re is null || pr is null || energy is null ? null : new ThresholdSettings(re.Value, pr.Value, energy.Value, rise);
-    }
-
-    private static double? MoneyPerDay(JsonNode n, string key, string currency)
-    {
-        var text = n.String(key);
-        if (text is null) return null;
-        var (amount, unit) = SplitMoney(n, key, text, $"\"20000 {currency}/d\"");
-        if (unit is null) return null;
-        var parts = unit.Split('/');
-        if (parts.Length != 2 || !parts[0].Trim().Equals(currency, StringComparison.OrdinalIgnoreCase) || !UnitCatalog.TryResolve(parts[1], Dimension.Duration, out var d))
-        { n.Error(key, $"'{text}' must be {currency} per time, e.g. \"20000 {currency}/d\"."); return null; }
-        return amount / d.Scale * 86400;
     }
 
     private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold)
