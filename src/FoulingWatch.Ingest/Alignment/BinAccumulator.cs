@@ -4,7 +4,7 @@ namespace FoulingWatch.Ingest.Alignment;
 internal sealed class BinAccumulator
 {
     private const int ChunkBits = 12;
-    private const int ChunkSize = 1 << ChunkBits;
+    private const long Mask = (1L << ChunkBits) - 1;
     private readonly Dictionary<long, (double[] Sum, int[] Count)> _chunks = new();
     private long _lastChunkKey = long.MinValue;
     private (double[] Sum, int[] Count) _lastChunk;
@@ -13,21 +13,24 @@ internal sealed class BinAccumulator
     public long MaximumBin { get; private set; } = long.MinValue;
     public bool IsEmpty => MinimumBin == long.MaxValue;
 
-    public void Add(long bin, double value)
+    public void Add(long bin, double value) => Add(bin, value, 1);
+
+    /// <summary>Adds a sum of <paramref name="count"/> values to one interval.</summary>
+    public void Add(long bin, double sum, int count)
     {
         var key = bin >> ChunkBits;
         if (key != _lastChunkKey)
         {
             if (!_chunks.TryGetValue(key, out _lastChunk))
             {
-                _lastChunk = (new double[ChunkSize], new int[ChunkSize]);
+                _lastChunk = (new double[1 << ChunkBits], new int[1 << ChunkBits]);
                 _chunks[key] = _lastChunk;
             }
             _lastChunkKey = key;
         }
-        var i = (int)(bin & (ChunkSize - 1));
-        _lastChunk.Sum[i] += value;
-        _lastChunk.Count[i]++;
+        var i = (int)(bin & Mask);
+        _lastChunk.Sum[i] += sum;
+        _lastChunk.Count[i] += count;
         if (bin < MinimumBin) MinimumBin = bin;
         if (bin > MaximumBin) MaximumBin = bin;
     }
@@ -41,7 +44,7 @@ internal sealed class BinAccumulator
             var bin = firstBin + k;
             if (_chunks.TryGetValue(bin >> ChunkBits, out var chunk))
             {
-                var i = (int)(bin & (ChunkSize - 1));
+                var i = (int)(bin & Mask);
                 result[k] = chunk.Count[i] > 0 ? chunk.Sum[i] / chunk.Count[i] : double.NaN;
             }
             else result[k] = double.NaN;
@@ -77,5 +80,65 @@ public static class GapBridge
         }
         missing += previous < 0 ? values.Length : values.Length - 1 - previous;
         return (withData, bridged, missing);
+    }
+}
+
+/// <summary>
+/// Sums and counts of all the columns of one part of a wide export, per grid interval: the cells of one interval
+/// lie side by side, so a record's values go to adjacent cells found once per record. Blocks are reused after
+/// <see cref="Clear"/>, so a worker reading part after part allocates nothing new.
+/// </summary>
+internal sealed class PartBins(int columns)
+{
+    private const int BlockBits = 8;
+    private const int BlockIntervals = 1 << BlockBits;
+    private readonly Dictionary<long, (double[] Sum, int[] Count)> _blocks = new();
+    private readonly Stack<(double[] Sum, int[] Count)> _free = new();
+    private long _lastKey = long.MinValue;
+    private (double[] Sum, int[] Count) _last;
+
+    public int Columns { get; } = columns;
+
+    /// <summary>The cells of interval <paramref name="bin"/>: column j's sum and count are at [offset + j].</summary>
+    public (double[] Sum, int[] Count, int Offset) Cells(long bin)
+    {
+        var key = bin >> BlockBits;
+        if (key != _lastKey)
+        {
+            if (!_blocks.TryGetValue(key, out _last))
+            {
+                _last = _free.Count > 0 ? _free.Pop() : (new double[BlockIntervals * Columns], new int[BlockIntervals * Columns]);
+                _blocks[key] = _last;
+            }
+            _lastKey = key;
+        }
+        return (_last.Sum, _last.Count, (int)(bin & (BlockIntervals - 1)) * Columns);
+    }
+
+    /// <summary>Adds the part's sums and counts to the file's per-tag accumulators, in interval order.</summary>
+    public void MergeInto(BinAccumulator[] whole)
+    {
+        foreach (var key in _blocks.Keys.Order())
+        {
+            var (sum, count) = _blocks[key];
+            for (var k = 0; k < BlockIntervals; k++)
+            for (var j = 0; j < Columns; j++)
+            {
+                var cell = k * Columns + j;
+                if (count[cell] > 0) whole[j].Add((key << BlockBits) + k, sum[cell], count[cell]);
+            }
+        }
+    }
+
+    public void Clear()
+    {
+        foreach (var block in _blocks.Values)
+        {
+            Array.Clear(block.Sum);
+            Array.Clear(block.Count);
+            _free.Push(block);
+        }
+        _blocks.Clear();
+        _lastKey = long.MinValue;
     }
 }

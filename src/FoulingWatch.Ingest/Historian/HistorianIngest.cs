@@ -44,24 +44,8 @@ public sealed record IngestResult(
 /// Duplicates: a second row with a timestamp already read from a file with the same columns (the same file or
 /// an overlapping export) is rejected as a duplicate; the first one read is kept (files in name order).
 /// </remarks>
-public static class HistorianIngest
+public static partial class HistorianIngest
 {
-    /// <summary>A wide column's conversion resolved once: SI = reading·Scale + Offset (density folded in), its range, and where it accumulates.</summary>
-    private sealed class ColumnPlan(int index, Channel channel)
-    {
-        public readonly int Index = index;
-        public readonly Channel Channel = channel;
-        public readonly string Tag = channel.Reference.Tag;
-        public readonly double Scale = channel.Reference.Unit.Scale * (channel.Reference.Density ?? 1.0);
-        public readonly double Offset = channel.Reference.Unit.Offset * (channel.Reference.Density ?? 1.0);
-        public readonly double Minimum = channel.Reference.RangeMinimum;
-        public readonly double Maximum = channel.Reference.RangeMaximum;
-        public readonly TagLedger Ledger = channel.Ledger;
-        public readonly BinAccumulator Bins = channel.Bins;
-
-        public static ColumnPlan Of(int index, Channel c) => new(index, c);
-    }
-
     private sealed class Channel
     {
         public required TagReference Reference;
@@ -98,7 +82,7 @@ public static class HistorianIngest
         var done = 0;
         foreach (var source in config.Data.Sources)
         {
-            var signatures = new Dictionary<string, HashSet<long>[]>(StringComparer.Ordinal);
+            var signatures = new Dictionary<string, HashSet<long>>(StringComparer.Ordinal);
             foreach (var file in source.Files)
             {
                 var dialect = FileDialectDetector.Detect(file, source);
@@ -202,84 +186,6 @@ public static class HistorianIngest
         return CsvReader.Create(stream, options, leaveOpen: false);
     }
 
-    private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>[]> signatures, Dictionary<string, List<string>> foundIn,
-        long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
-    {
-        var header = dialect.Header;
-        var tsColumn = FileDialectDetector.TimestampColumnIndex(header, source);
-        if (tsColumn < 0)
-            throw new IngestException(file, dialect.HeaderLine, null, $"no timestamp column '{source.Timestamp.Column}' in the header ({string.Join(", ", header.Take(8))}…); set {source.Path}.timestamp.column.");
-        var columns = new List<(int Index, Channel Channel)>();
-        for (var i = 0; i < header.Count; i++)
-        {
-            if (i == tsColumn || !channels.TryGetValue(header[i], out var c)) continue;
-            if (c.Reference.Source is not null && c.Reference.Source != source.Id) continue;
-            columns.Add((i, c));
-            (foundIn.TryGetValue(c.Reference.Tag, out var l) ? l : foundIn[c.Reference.Tag] = []).Add(file);
-        }
-        // Number parsing, not reading, is the cost: the columns are shared out between the cores, each worker reading
-        // the file once for its own columns. Workers share nothing but the file, so the result does not depend on timing.
-        var workers = Math.Clamp(Math.Min(Environment.ProcessorCount, columns.Count / 8), 1, 8);
-        var signature = string.Join("\u0001", columns.Select(c => c.Channel.Reference.Tag).Order(StringComparer.Ordinal));
-        if (!signatures.TryGetValue(signature, out var seenSets) || seenSets.Length != workers)
-            signatures[signature] = seenSets = Enumerable.Range(0, workers).Select(_ => new HashSet<long>()).ToArray();
-        // Contiguous blocks, so that the ledgers and bins one worker updates do not share cache lines with another's.
-        var groups = Enumerable.Range(0, workers).Select(w => columns.Skip(w * columns.Count / workers).Take((w + 1) * columns.Count / workers - w * columns.Count / workers).ToArray()).ToArray();
-        var outcomes = new (long Rows, long Daylight, long Standard)[workers];
-        Parallel.For(0, workers, new ParallelOptions { MaxDegreeOfParallelism = workers }, w =>
-            outcomes[w] = ReadWideColumns(file, source, dialect, config, groups[w], seenSets[w], tsColumn, interval, windowStart, windowEnd, sink));
-        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
-            outcomes[0].Rows, outcomes[0].Daylight, outcomes[0].Standard, header.ToList());
-    }
-
-    private static (long Rows, long Daylight, long Standard) ReadWideColumns(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        (int Index, Channel Channel)[] columns, HashSet<long> seen, int tsColumn, long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
-    {
-        var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
-        var decimalByte = (byte)dialect.DecimalSeparator;
-        var markers = MarkerSet(source);
-        var plans = columns.Select(c => ColumnPlan.Of(c.Index, c.Channel)).ToArray();
-        long rows = 0;
-        var name = Path.GetFileName(file);
-        foreach (var reader in DataRows(file, dialect))
-        {
-            rows++;
-            var rowReason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
-            if (rowReason is null && !seen.Add(utc)) rowReason = RejectReason.Duplicate;
-            if (rowReason is { } rr)
-            {
-                var line = dialect.HeaderLine - 1 + reader.LineNumber;
-                var tsText = rr is RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime ? Encoding.UTF8.GetString(reader.GetSpan(tsColumn)) : null;
-                foreach (var (_, c) in columns)
-                    c.Ledger.CountRejected(rr, () => Example(name, line, tsColumn + 1, c.Reference.Tag, rr, tsText));
-                continue;
-            }
-            var bin = utc / interval;
-            // Hot loop: parse, convert with the column's resolved scale and offset, range-check, bin. Anything else
-            // (empty, marker, text, out of range) goes to AddValue, which works out and counts the reason.
-            for (var j = 0; j < plans.Length; j++)
-            {
-                var plan = plans[j];
-                var span = reader.GetSpan(plan.Index).TrimBlanks();
-                if (span.Length > 0 && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
-                    && consumed == span.Length)
-                {
-                    var si = reading * plan.Scale + plan.Offset;
-                    if (si >= plan.Minimum && si <= plan.Maximum)
-                    {
-                        plan.Ledger.CountUsed();
-                        plan.Bins.Add(bin, si);
-                        sink?.Add(plan.Tag, utc, si);
-                        continue;
-                    }
-                }
-                AddValue(plan.Channel, reader, plan.Index, bin, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
-            }
-        }
-        return (rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard);
-    }
-
     private static FileReport ReadLong(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
         Dictionary<string, Channel> channels, Dictionary<string, List<string>> foundIn, long interval, long? windowStart, long? windowEnd, ref long otherRows,
         RawValueSink? sink)
@@ -302,6 +208,7 @@ public static class HistorianIngest
         var markers = MarkerSet(source);
         var byName = channels.Values.Where(c => c.Reference.Source is null || c.Reference.Source == source.Id)
             .ToDictionary(c => c.Reference.Tag, StringComparer.OrdinalIgnoreCase);
+        var plans = byName.Values.ToDictionary(c => c.Reference.Tag, c => new ColumnPlan(valueColumn, c), StringComparer.Ordinal);
         long rows = 0;
         var name = Path.GetFileName(file);
         foreach (var reader in DataRows(file, dialect))
@@ -328,7 +235,12 @@ public static class HistorianIngest
                 c.Ledger.CountRejected(r, () => Example(name, line, col, c.Reference.Tag, r, detail));
                 continue;
             }
-            AddValue(c, reader, valueColumn, utc / interval, utc, decimalByte, markers, name, dialect.HeaderLine - 1, sink);
+            if (SlowValue(plans[c.Reference.Tag], c.Ledger, reader, valueColumn, decimalByte, markers, name, dialect.HeaderLine - 1, out var si))
+            {
+                c.Ledger.CountUsed();
+                c.Bins.Add(utc / interval, si);
+                sink?.Add(c.Reference.Tag, utc, si);
+            }
         }
         return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
             rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
@@ -347,38 +259,43 @@ public static class HistorianIngest
     private static Dictionary<string, string> MarkerSet(HistorianSource source) =>
         source.Markers.Distinct(StringComparer.OrdinalIgnoreCase).ToDictionary(m => m, m => m, StringComparer.OrdinalIgnoreCase);
 
-    // The hot path: no closures here (a lambda capturing the parameters would allocate on every call); rejections go
-    // to RejectValue, which may allocate.
-    private static void AddValue(Channel c, CsvReader reader, int column, long bin, long utc, byte decimalByte, Dictionary<string, string> markers,
-        string file, long lineOffset, RawValueSink? sink)
+    /// <summary>
+    /// A value the quick route did not take (blanks, exponent, long digit strings, empty, marker, text, out of range):
+    /// its SI value when it is usable, else false with the reason counted in the ledger. The caller counts a usable one.
+    /// </summary>
+    private static bool SlowValue(ColumnPlan plan, TagLedger ledger, CsvReader reader, int column, byte decimalByte,
+        Dictionary<string, string> markers, string file, long lineOffset, out double si)
     {
         var span = reader.GetSpan(column).TrimBlanks();
-        if (!span.IsEmpty && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out double reading, NumberStyles.Float, decimalByte)
-            && consumed == span.Length && double.IsFinite(reading))
+        if (TryReadNumber(span, decimalByte, out var reading))
         {
-            var si = c.Reference.ToSi(reading);
-            if (si >= c.Reference.RangeMinimum && si <= c.Reference.RangeMaximum)
-            {
-                c.Ledger.CountUsed();
-                c.Bins.Add(bin, si);
-                sink?.Add(c.Reference.Tag, utc, si);
-                return;
-            }
-            RejectValue(c, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, lineOffset + reader.LineNumber, column);
-            return;
+            si = plan.ToSi(reading);
+            if (si >= plan.Minimum && si <= plan.Maximum) return true;
+            RejectValue(ledger, plan.Tag, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, lineOffset + reader.LineNumber, column);
+            return false;
         }
-        if (span.IsEmpty) { RejectValue(c, RejectReason.Empty, null, file, lineOffset + reader.LineNumber, column); return; }
+        si = double.NaN;
+        if (span.IsEmpty) { RejectValue(ledger, plan.Tag, RejectReason.Empty, null, file, lineOffset + reader.LineNumber, column); return false; }
         var text = Encoding.UTF8.GetString(span).Trim();
         if (markers.TryGetValue(text, out var marker))
         {
-            c.Ledger.CountMarker(marker);
-            RejectValue(c, RejectReason.TextMarker, text, file, lineOffset + reader.LineNumber, column);
+            ledger.CountMarker(marker);
+            RejectValue(ledger, plan.Tag, RejectReason.TextMarker, text, file, lineOffset + reader.LineNumber, column);
         }
-        else RejectValue(c, RejectReason.NotANumber, text, file, lineOffset + reader.LineNumber, column);
+        else RejectValue(ledger, plan.Tag, RejectReason.NotANumber, text, file, lineOffset + reader.LineNumber, column);
+        return false;
     }
 
-    private static void RejectValue(Channel c, RejectReason reason, string? text, string file, long line, int column) =>
-        c.Ledger.CountRejected(reason, () => Example(file, line, column + 1, c.Reference.Tag, reason, text));
+    /// <summary>A finite number filling the whole field: the plain-decimal route first, then the general parser (exponents, long digit strings).</summary>
+    private static bool TryReadNumber(ReadOnlySpan<byte> span, byte decimalByte, out double reading)
+    {
+        if (PlainDecimal.TryParse(span, decimalByte, out reading)) return true;
+        return !span.IsEmpty && csFastFloat.FastDoubleParser.TryParseDouble(span, out int consumed, out reading, NumberStyles.Float, decimalByte)
+            && consumed == span.Length && double.IsFinite(reading);
+    }
+
+    private static void RejectValue(TagLedger ledger, string tag, RejectReason reason, string? text, string file, long line, int column) =>
+        ledger.CountRejected(reason, () => Example(file, line, column + 1, tag, reason, text));
 
     /// <summary>One rejection described for a person: where, what, and what to do.</summary>
     public static string Example(string file, long line, int column, string tag, RejectReason reason, string? text) => reason switch

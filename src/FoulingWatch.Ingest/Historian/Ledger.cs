@@ -48,7 +48,25 @@ public sealed class TagLedger
 {
     private const int MaxExamples = 5;
 
+    private const int ExamplesPerReason = 2;
+    private readonly int _exampleCap = MaxExamples;
+    private readonly List<RejectReason>? _exampleReasons;
+
     public TagLedger(string tag) => Tag = tag;
+
+    /// <summary>
+    /// A ledger of one part of a file, merged later into the file's ledger in file order. It keeps the first two
+    /// examples of every reason (not only the first five in all), so that the merge can pick exactly the examples
+    /// a single pass over the whole file would have kept.
+    /// </summary>
+    internal static TagLedger Part(string tag) => new(tag, partial: true);
+
+    private TagLedger(string tag, bool partial)
+    {
+        Tag = tag;
+        _exampleCap = ExamplesPerReason * RejectReasons.All.Length;
+        _exampleReasons = [];
+    }
 
     public string Tag { get; }
     public long Read { get; private set; }
@@ -77,17 +95,21 @@ public sealed class TagLedger
         foreach (var (k, v) in markers) Markers[k] = v;
     }
 
-    internal void CountUsed()
+    internal void CountUsed(long count = 1)
     {
-        Read++;
-        Used++;
+        Read += count;
+        Used += count;
     }
 
     internal void CountRejected(RejectReason reason, Func<string>? example = null)
     {
         Read++;
         Rejected[(int)reason]++;
-        if (example is not null && Examples.Count < MaxExamples && Rejected[(int)reason] <= 2) Examples.Add(example());
+        if (example is not null && Examples.Count < _exampleCap && Rejected[(int)reason] <= ExamplesPerReason)
+        {
+            Examples.Add(example());
+            _exampleReasons?.Add(reason);
+        }
     }
 
     internal void CountMarker(string marker)
@@ -98,11 +120,22 @@ public sealed class TagLedger
 
     public void Merge(TagLedger other)
     {
+        if (other._exampleReasons is { } reasons)
+        {
+            // The k-th example of a reason in the part is the (before + k)-th of the whole: kept as one pass would keep it.
+            var before = (long[])Rejected.Clone();
+            var seen = new int[Rejected.Length];
+            for (var i = 0; i < other.Examples.Count; i++)
+            {
+                var r = (int)reasons[i];
+                if (before[r] + ++seen[r] <= ExamplesPerReason && Examples.Count < _exampleCap) Examples.Add(other.Examples[i]);
+            }
+        }
+        else foreach (var e in other.Examples) if (Examples.Count < _exampleCap) Examples.Add(e);
         Read += other.Read;
         Used += other.Used;
         for (var i = 0; i < Rejected.Length; i++) Rejected[i] += other.Rejected[i];
         foreach (var (k, v) in other.Markers) { Markers.TryGetValue(k, out var n); Markers[k] = n + v; }
-        foreach (var e in other.Examples) if (Examples.Count < MaxExamples) Examples.Add(e);
     }
 }
 

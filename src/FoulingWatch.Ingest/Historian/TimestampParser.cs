@@ -52,6 +52,12 @@ public sealed class TimestampParser
     public long AmbiguousAsDaylight { get; private set; }
     public long AmbiguousAsStandard { get; private set; }
 
+    /// <summary>The latest instant read so far: the state that a time in the repeated autumn hour is resolved with.</summary>
+    public long LatestUtc => _lastUtc;
+
+    /// <summary>Carries on after an earlier part of the same file, whose latest instant was <paramref name="utcTicks"/>.</summary>
+    public void Observe(long utcTicks) => _lastUtc = Math.Max(_lastUtc, utcTicks);
+
     public TimestampOutcome Parse(ReadOnlySpan<byte> field, out long utcTicks)
     {
         utcTicks = 0;
@@ -73,7 +79,7 @@ public sealed class TimestampParser
             {
                 if (!DateTimeOffset.TryParseExact(text, _format, CultureInfo.InvariantCulture, DateTimeStyles.AllowWhiteSpaces, out var dto)) return TimestampOutcome.Bad;
                 utcTicks = dto.UtcTicks;
-                _lastUtc = utcTicks;
+                _lastUtc = Math.Max(_lastUtc, utcTicks);
                 return TimestampOutcome.Ok;
             }
             if (!DateTime.TryParseExact(text, _format, CultureInfo.InvariantCulture, DateTimeStyles.AllowWhiteSpaces, out var dt)) return TimestampOutcome.Bad;
@@ -85,7 +91,7 @@ public sealed class TimestampParser
             if (offsetMinutes is { } off)
             {
                 utcTicks = localTicks - off * TimeSpan.TicksPerMinute;
-                _lastUtc = utcTicks;
+                _lastUtc = Math.Max(_lastUtc, utcTicks);
                 return TimestampOutcome.Ok;
             }
         }
@@ -97,7 +103,7 @@ public sealed class TimestampParser
         if (!_local)
         {
             utcTicks = localTicks;
-            _lastUtc = utcTicks;
+            _lastUtc = Math.Max(_lastUtc, utcTicks);
             return TimestampOutcome.Ok;
         }
         var dt = new DateTime(localTicks, DateTimeKind.Unspecified);

@@ -1,0 +1,319 @@
+using System.Buffers;
+using System.Runtime.CompilerServices;
+using System.Text;
+using CsvHelper;
+using FoulingWatch.Ingest.Alignment;
+using FoulingWatch.Ingest.Configuration;
+
+namespace FoulingWatch.Ingest.Historian;
+
+public static partial class HistorianIngest
+{
+    /// <summary>Bytes of an export read as one part; a part is cut at the end of a record.</summary>
+    private const int DefaultPartBytes = 4 << 20;
+
+    /// <summary>Tests set a small part size on their own thread, to cut small fixtures into many parts.</summary>
+    [ThreadStatic] internal static int? PartBytesForTests;
+
+    private static int PartBytes => PartBytesForTests ?? DefaultPartBytes;
+
+    /// <summary>A column's conversion resolved once: SI = reading·Scale + Offset (density folded in), and its physical range.</summary>
+    private sealed class ColumnPlan(int index, Channel channel)
+    {
+        public readonly int Index = index;
+        public readonly Channel Channel = channel;
+        public readonly string Tag = channel.Reference.Tag;
+        public readonly double Scale = channel.Reference.Unit.Scale * (channel.Reference.Density ?? 1.0);
+        public readonly double Offset = channel.Reference.Unit.Offset * (channel.Reference.Density ?? 1.0);
+        public readonly double Minimum = channel.Reference.RangeMinimum;
+        public readonly double Maximum = channel.Reference.RangeMaximum;
+
+        public double ToSi(double reading) => reading * Scale + Offset;
+    }
+
+    /// <summary>A run of whole records of one export, with the line its first record starts on.</summary>
+    private sealed class FilePart(byte[] buffer, int length, long lineBefore, bool first) : IDisposable
+    {
+        public readonly byte[] Buffer = buffer;
+        public readonly int Length = length;
+        /// <summary>Lines of the file before this part (its first record is on line LineBefore + 1).</summary>
+        public readonly long LineBefore = lineBefore;
+        /// <summary>The part that holds the header and the unit/description rows.</summary>
+        public readonly bool First = first;
+
+        public void Dispose() => ArrayPool<byte>.Shared.Return(Buffer);
+    }
+
+    /// <summary>What the rows of one part go into: ledgers and interval sums of its own, merged into the file's in file order.</summary>
+    private sealed class PartTarget(ColumnPlan[] plans)
+    {
+        public readonly TagLedger[] Ledgers = plans.Select(p => TagLedger.Part(p.Tag)).ToArray();
+        public readonly PartBins Bins = new(plans.Length);
+        /// <summary>Timestamps already read: the part's own (a worker), or the file's (a part read in order).</summary>
+        public HashSet<long> Seen = [];
+        public TimestampParser Parser = null!;
+        /// <summary>For a worker's part: the timestamps it accepted, checked against the file's set when the part is merged.</summary>
+        public readonly List<long> Accepted = [];
+        public bool Worker;
+        public RawValueSink? Sink;
+        public long Rows;
+
+        public void Clear()
+        {
+            for (var j = 0; j < Ledgers.Length; j++) Ledgers[j] = TagLedger.Part(Ledgers[j].Tag);
+            Bins.Clear();
+            Accepted.Clear();
+            Rows = 0;
+        }
+    }
+
+    private sealed record WideFile(string Name, HistorianSource Source, FileDialect Dialect, PlantConfiguration Config, ColumnPlan[] Plans, int TimestampColumn,
+        long Interval, long? WindowStart, long? WindowEnd, Dictionary<string, string> Markers)
+    {
+        private readonly System.Collections.Concurrent.ConcurrentBag<PartTarget> _spare = [];
+
+        /// <summary>A worker's target: its own duplicate set and clock (reused from a merged part when one is spare).</summary>
+        public PartTarget Rent()
+        {
+            if (!_spare.TryTake(out var target)) target = new PartTarget(Plans);
+            target.Seen.Clear();
+            target.Parser = new TimestampParser(Source.Timestamp, Config.Site.TimeZone);
+            target.Worker = true;
+            target.Sink = null;
+            return target;
+        }
+
+        public void Return(PartTarget target)
+        {
+            target.Clear();
+            _spare.Add(target);
+        }
+    }
+
+    /// <summary>The file's own state: ledgers and bins per tag, the timestamps read, the clock carried from part to part.</summary>
+    private sealed record FileState(TagLedger[] Ledgers, BinAccumulator[] Bins, HashSet<long> Seen, TimestampParser Parser, RawValueSink? Sink)
+    {
+        public long Rows;
+    }
+
+    /// <remarks>
+    /// The file is cut into parts of whole records (<see cref="PartBytes"/>), which the cores read at the same time
+    /// into parts of their own (ledgers, bins); the parts are merged in file order, so the result is the same for any
+    /// number of cores. Two things need what came before in the file and are settled at the merge: a timestamp already
+    /// read in an earlier part (a duplicate) and a local time in the repeated autumn hour (resolved by the instants read
+    /// before it). A part with either is read again, in order, straight into the file's own state; that is rare (an
+    /// overlapping export, once a year) and gives exactly the single-pass result. With a raw-value sink (the watch
+    /// service keeps every value) the parts are read in order on one thread.
+    /// </remarks>
+    private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
+        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>> signatures, Dictionary<string, List<string>> foundIn,
+        long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
+    {
+        var header = dialect.Header;
+        var tsColumn = FileDialectDetector.TimestampColumnIndex(header, source);
+        if (tsColumn < 0)
+            throw new IngestException(file, dialect.HeaderLine, null, $"no timestamp column '{source.Timestamp.Column}' in the header ({string.Join(", ", header.Take(8))}…); set {source.Path}.timestamp.column.");
+        var plans = new List<ColumnPlan>();
+        for (var i = 0; i < header.Count; i++)
+        {
+            if (i == tsColumn || !channels.TryGetValue(header[i], out var c)) continue;
+            if (c.Reference.Source is not null && c.Reference.Source != source.Id) continue;
+            plans.Add(new ColumnPlan(i, c));
+            (foundIn.TryGetValue(c.Reference.Tag, out var l) ? l : foundIn[c.Reference.Tag] = []).Add(file);
+        }
+        // Files with the same columns share one set of timestamps read, so overlapping exports are deduplicated.
+        var signature = string.Join("\u0001", plans.Select(p => p.Tag).Order(StringComparer.Ordinal));
+        if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = [];
+
+        var wide = new WideFile(Path.GetFileName(file), source, dialect, config, plans.ToArray(), tsColumn, interval, windowStart, windowEnd, MarkerSet(source));
+        var whole = new FileState(wide.Plans.Select(p => p.Channel.Ledger).ToArray(), wide.Plans.Select(p => p.Channel.Bins).ToArray(), seen,
+            new TimestampParser(source.Timestamp, config.Site.TimeZone), sink);
+        var workers = Math.Clamp(Environment.ProcessorCount, 1, 8);
+        var pending = new Queue<(FilePart Part, Task<PartTarget>? Work)>();
+        try
+        {
+            foreach (var part in Parts(file, dialect))
+            {
+                // With a raw-value sink every value is handed over in file order, so the parts are read in order.
+                pending.Enqueue((part, sink is not null ? null : Task.Run(() =>
+                {
+                    var target = wide.Rent();
+                    ReadPart(part, wide, target);
+                    return target;
+                })));
+                // One part more than there are cores keeps every core busy while this thread reads the next one.
+                while (pending.Count > (sink is null ? workers : 0)) MergeNext(pending, wide, whole);
+            }
+            while (pending.Count > 0) MergeNext(pending, wide, whole);
+        }
+        finally
+        {
+            foreach (var (part, work) in pending)
+            {
+                try { work?.Wait(); } catch (AggregateException) { /* the first failure is already on its way up */ }
+                part.Dispose();
+            }
+        }
+        return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
+            whole.Rows, whole.Parser.AmbiguousAsDaylight, whole.Parser.AmbiguousAsStandard, header.ToList());
+    }
+
+    private static void MergeNext(Queue<(FilePart Part, Task<PartTarget>? Work)> pending, WideFile wide, FileState whole)
+    {
+        var (part, work) = pending.Dequeue();
+        using (part)
+        {
+            var read = work?.GetAwaiter().GetResult();
+            if (read is null || read.Parser.AmbiguousAsDaylight + read.Parser.AmbiguousAsStandard > 0 || read.Accepted.Exists(whole.Seen.Contains))
+            {
+                // Read in order against the file's own timestamps and clock: exactly what one pass would do.
+                if (read is not null) wide.Return(read);
+                read = new PartTarget(wide.Plans) { Seen = whole.Seen, Parser = whole.Parser, Sink = whole.Sink };
+                ReadPart(part, wide, read);
+            }
+            else
+            {
+                foreach (var utc in read.Accepted) whole.Seen.Add(utc);
+                whole.Parser.Observe(read.Parser.LatestUtc);
+            }
+            for (var j = 0; j < wide.Plans.Length; j++) whole.Ledgers[j].Merge(read.Ledgers[j]);
+            read.Bins.MergeInto(whole.Bins);
+            whole.Rows += read.Rows;
+            if (read.Worker) wide.Return(read);
+        }
+    }
+
+    /// <summary>Cuts the export (from its header on) into parts of whole records: at a line break outside quotes.</summary>
+    private static IEnumerable<FilePart> Parts(string file, FileDialect dialect)
+    {
+        using var stream = ExportStream.OpenAt(file, dialect.HeaderByteOffset);
+        var buffer = ArrayPool<byte>.Shared.Rent(PartBytes);
+        var length = 0;
+        var end = false;
+        long lineBefore = dialect.HeaderLine - 1;
+        var first = true;
+        try
+        {
+            while (true)
+            {
+                while (!end && length < buffer.Length)
+                {
+                    var n = stream.Read(buffer, length, buffer.Length - length);
+                    if (n == 0) end = true;
+                    else length += n;
+                }
+                if (length == 0) yield break;
+                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length));
+                // The first part holds the header and the unit rows whole; a record longer than the buffer grows it.
+                if (!end && (cut < 0 || (first && buffer.AsSpan(0, cut).Count((byte)'\n') <= dialect.MetadataRows)))
+                {
+                    var larger = ArrayPool<byte>.Shared.Rent(buffer.Length * 2);
+                    buffer.AsSpan(0, length).CopyTo(larger);
+                    ArrayPool<byte>.Shared.Return(buffer);
+                    buffer = larger;
+                    continue;
+                }
+                var next = ArrayPool<byte>.Shared.Rent(Math.Max(PartBytes, 2 * (length - cut)));
+                buffer.AsSpan(cut, length - cut).CopyTo(next);
+                var part = new FilePart(buffer, cut, lineBefore, first);
+                lineBefore += buffer.AsSpan(0, cut).Count((byte)'\n');
+                first = false;
+                length -= cut;
+                buffer = next;
+                yield return part;
+            }
+        }
+        finally
+        {
+            ArrayPool<byte>.Shared.Return(buffer);
+        }
+    }
+
+    /// <summary>The length of the run of whole records at the start of <paramref name="data"/>: up to the last line break outside quotes, or -1.</summary>
+    /// <remarks>Parts always start outside quotes, so a line break is outside them when an even number of quotes comes before it (an escaped quote is two).</remarks>
+    internal static int RecordsEnd(ReadOnlySpan<byte> data)
+    {
+        var at = data.LastIndexOf((byte)'\n');
+        if (at < 0) return -1;
+        var quotes = data[..at].Count((byte)'"');
+        while ((quotes & 1) == 1)
+        {
+            var previous = data[..at].LastIndexOf((byte)'\n');
+            if (previous < 0) return -1;
+            quotes -= data[previous..at].Count((byte)'"');
+            at = previous;
+        }
+        return at + 1;
+    }
+
+    private static CsvReader OpenPart(FilePart part, FileDialect dialect)
+    {
+        var options = new CsvReaderOptions
+        {
+            Separator = dialect.Delimiter,
+            HasHeader = part.First,
+            // Trimming in the reader costs more than all the number parsing; fields are trimmed where they are used.
+            TrimWhitespace = false,
+            TrackLineNumbers = true,
+            FieldCountMismatch = CsvFieldCountHandling.Allow,
+            SkipEmptyLines = true,
+        };
+        // UTF-8 is read in place; another encoding (Windows-1252) is transcoded by the reader.
+        return dialect.Encoding is UTF8Encoding
+            ? CsvReader.Create(part.Buffer.AsMemory(0, part.Length), options)
+            : CsvReader.Create(new MemoryStream(part.Buffer, 0, part.Length, writable: false), options with { Encoding = dialect.Encoding }, leaveOpen: false);
+    }
+
+    // Optimised at once: the loop runs a few times per file, too few for the tiered JIT to pay back its slow first tiers.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
+    {
+        using var reader = OpenPart(part, wide.Dialect);
+        if (part.First) reader.ReadHeader();
+        var skip = part.First ? wide.Dialect.MetadataRows : 0;
+        var plans = wide.Plans;
+        var ledgers = target.Ledgers;
+        var decimalByte = (byte)wide.Dialect.DecimalSeparator;
+        var tsColumn = wide.TimestampColumn;
+        var sink = target.Sink;
+        long rows = 0;
+        while (reader.Read())
+        {
+            if (skip > 0) { skip--; continue; }
+            rows++;
+            var rowReason = TimeReason(target.Parser, reader.GetSpan(tsColumn), wide.WindowStart, wide.WindowEnd, out var utc);
+            if (rowReason is null && !target.Seen.Add(utc)) rowReason = RejectReason.Duplicate;
+            if (rowReason is { } rr)
+            {
+                var line = part.LineBefore + reader.LineNumber;
+                var tsText = rr is RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime ? Encoding.UTF8.GetString(reader.GetSpan(tsColumn)) : null;
+                for (var j = 0; j < plans.Length; j++)
+                {
+                    var tag = plans[j].Tag;
+                    ledgers[j].CountRejected(rr, () => Example(wide.Name, line, tsColumn + 1, tag, rr, tsText));
+                }
+                continue;
+            }
+            if (target.Worker) target.Accepted.Add(utc);
+            var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
+            // Hot loop: parse, convert with the column's resolved scale and offset, range-check, add to the interval.
+            // Anything else goes to SlowValue, which reads it the long way or counts why it is rejected.
+            for (var j = 0; j < plans.Length; j++, cell++)
+            {
+                var plan = plans[j];
+                if (!PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
+                    || !((reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum))
+                {
+                    if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out reading)) continue;
+                    // Counted as used with the others below: every read value is used unless the ledger says why not.
+                }
+                sums[cell] += reading;
+                counts[cell]++;
+                sink?.Add(plan.Tag, utc, reading);
+            }
+        }
+        // Each row is one read of every column: those not rejected (row or value) were used.
+        for (var j = 0; j < plans.Length; j++) ledgers[j].CountUsed(rows - ledgers[j].Read);
+        target.Rows += rows;
+    }
+}

@@ -1,0 +1,98 @@
+using System.Text;
+using FoulingWatch.Ingest.Configuration;
+using FoulingWatch.Ingest.Historian;
+
+namespace FoulingWatch.Ingest.Tests.Historian;
+
+/// <summary>
+/// A wide export is cut into parts that the cores read at once and that are merged in file order. Whatever the
+/// part size, the ledgers (counts, markers, examples with their lines) and the file reports must be exactly those
+/// of one part holding the whole file, and the interval means the same to rounding (a mean over an interval cut by
+/// a part boundary is summed in two pieces). Analytic reference: a single in-order pass over the file.
+/// </summary>
+public class FilePartsTests
+{
+    private static IngestResult Read(string configPath, int? partBytes)
+    {
+        HistorianIngest.PartBytesForTests = partBytes;
+        try { return HistorianIngest.Run(PlantConfigurationReader.Load(configPath)); }
+        finally { HistorianIngest.PartBytesForTests = null; }
+    }
+
+    private static void AssertSame(IngestResult whole, IngestResult parts)
+    {
+        Assert.Equal(whole.GridStart, parts.GridStart);
+        Assert.Equal(whole.IntervalCount, parts.IntervalCount);
+        foreach (var (tag, a) in whole.TagLedgers)
+        {
+            var b = parts.TagLedgers[tag];
+            Assert.Equal((a.Read, a.Used), (b.Read, b.Used));
+            Assert.Equal(a.Rejected, b.Rejected);
+            Assert.Equal(a.Markers, b.Markers);
+            Assert.Equal(a.Examples, b.Examples);
+            Assert.Equal((a.IntervalsWithData, a.IntervalsBridged, a.IntervalsMissing), (b.IntervalsWithData, b.IntervalsBridged, b.IntervalsMissing));
+            var (x, y) = (whole.Series[tag], parts.Series[tag]);
+            for (var k = 0; k < x.Length; k++)
+                if (double.IsNaN(x[k])) Assert.True(double.IsNaN(y[k]), $"{tag}[{k}]");
+                else Assert.True(Math.Abs(x[k] - y[k]) <= 1e-12 * Math.Abs(x[k]), $"{tag}[{k}]: {x[k]:R} vs {y[k]:R}");
+        }
+        Assert.Equal(whole.Files.Select(f => (f.DataRows, f.AmbiguousLocalTimesAsDaylight, f.AmbiguousLocalTimesAsStandard)),
+            parts.Files.Select(f => (f.DataRows, f.AmbiguousLocalTimesAsDaylight, f.AmbiguousLocalTimesAsStandard)));
+    }
+
+    [Theory]
+    [InlineData("wide-artefacts.csv", "{ \"files\": [\"wide-artefacts.csv\"] }", "UTC", "\"interval\": \"10 min\"")]
+    [InlineData("local-dst.csv", "{ \"files\": [\"local-dst.csv\"] }", "Europe/Amsterdam", "\"interval\": \"30 min\", \"maxGap\": \"0 min\"")]
+    [InlineData("wide-1252-semicolon.csv", "{ \"files\": [\"wide-1252-semicolon.csv\"], \"timestamp\": { \"format\": \"dd.MM.yyyy HH:mm:ss\" } }", "Europe/Amsterdam", "\"interval\": \"10 min\"")]
+    [InlineData("serial-dates.csv", "{ \"files\": [\"serial-dates.csv\"], \"timestamp\": { \"format\": \"serial\" } }", "UTC", "\"interval\": \"6 h\"")]
+    public void Every_fixture_reads_the_same_in_parts_of_any_size(string fixture, string source, string zone, string data)
+    {
+        using var plant = new TestPlant().WithFixture(fixture).WithConfig(source, timeZone: zone, data: data);
+        var whole = Read(plant.ConfigPath, null);
+        foreach (var size in new[] { 16, 64, 200, 1000 })
+            AssertSame(whole, Read(plant.ConfigPath, size));
+    }
+
+    [Fact]
+    public void Duplicates_across_parts_quoted_line_breaks_and_the_repeated_hour_read_as_in_one_pass()
+    {
+        // Two days at 5 min in local time over the autumn change, every 7th row quoted with a line break in a quoted
+        // note column, a block of rows exported twice further down (duplicates in another part), markers and blanks.
+        var sb = new StringBuilder("Timestamp,Note,FI-101,TI-101,TI-102,FI-201,TI-201,TI-202\n");
+        var start = new DateTime(2025, 10, 25, 12, 0, 0);
+        var rng = new Random(5);
+        var lines = new List<string>();
+        for (var m = 0; m < 2 * 24 * 12; m++)
+        {
+            var local = start.AddMinutes(5 * m);
+            var note = m % 7 == 0 ? "\"operator note,\nsecond line \"\"quoted\"\"\"" : "";
+            var reading = m % 31 == 0 ? "Bad" : m % 37 == 0 ? "" : (100 + 10 * rng.NextDouble()).ToString("0.000", System.Globalization.CultureInfo.InvariantCulture);
+            lines.Add($"{local:yyyy-MM-dd HH:mm},{note},{reading},{250 + rng.NextDouble():0.00}, {180 + rng.NextDouble():0.00} ,{90 + rng.NextDouble():0.0},{40 + rng.NextDouble():0.00},{95 + rng.NextDouble():0.00}");
+        }
+        // The autumn hour 02:00-03:00 on 26 October appears twice in a local-time export: as written by the clock.
+        var repeated = lines.Where(l => l.StartsWith("2025-10-26 02:", StringComparison.Ordinal)).ToList();
+        var at = lines.FindIndex(l => l.StartsWith("2025-10-26 03:00", StringComparison.Ordinal));
+        lines.InsertRange(at, repeated);
+        lines.AddRange(lines.Skip(100).Take(40)); // exported twice: duplicates of rows far back
+        foreach (var l in lines) sb.Append(l).Append('\n');
+        using var plant = new TestPlant().WithFile("dup-dst.csv", sb.ToString())
+            .WithConfig("{ \"files\": [\"dup-dst.csv\"] }", timeZone: "Europe/Amsterdam", data: "\"interval\": \"15 min\"");
+        var whole = Read(plant.ConfigPath, null);
+        var flow = whole.TagLedgers["FI-101"];
+        Assert.Equal(40, flow.Rejected[(int)RejectReason.Duplicate]);
+        Assert.True(whole.Files[0].AmbiguousLocalTimesAsStandard == 12 && whole.Files[0].AmbiguousLocalTimesAsDaylight >= 12);
+        Assert.Equal(flow.Read, flow.Used + flow.RejectedTotal);
+        foreach (var size in new[] { 100, 700, 4096 })
+            AssertSame(whole, Read(plant.ConfigPath, size));
+    }
+
+    [Theory]
+    [InlineData("a,b\n1,2\n", 8)]
+    [InlineData("a,b\n1,2", 4)]
+    [InlineData("a,\"x\ny\"\n1,2\n", 12)]
+    [InlineData("a,\"x\ny\"\n1,\"2\n", 8)]
+    [InlineData("\"only\nquoted", -1)]
+    [InlineData("no line break", -1)]
+    public void Parts_end_at_a_line_break_outside_quotes(string text, int expected) =>
+        Assert.Equal(expected, HistorianIngest.RecordsEnd(Encoding.ASCII.GetBytes(text)));
+}
