@@ -23,30 +23,42 @@ if (!File.Exists(csv))
 File.WriteAllText(config, Config(Path.GetFileName(csv)));
 var bytes = new FileInfo(csv).Length;
 
-// Warm-up on a small slice is unnecessary for these sizes; each measurement is one full pass.
-var (rows, fields, bare) = Time(() => BareRead(csv));
+// This machine's timings vary by tens of per cent from run to run (a shared virtual machine), so each measurement is
+// repeated and the best and the median are reported; the first full ingest (with the JIT still tiering up) is shown apart.
+const int repeats = 5;
+var bares = new List<double>();
+long rows = 0, fields = 0;
+for (var i = 0; i < repeats; i++)
+{
+    var (r0, f0, t0) = Time(() => BareRead(csv));
+    (rows, fields) = (r0, f0);
+    bares.Add(t0);
+}
 var peakBare = Process.GetCurrentProcess().PeakWorkingSet64;
 var (_, parsed, parse) = Time(() => ReadAndParse(csv));
 GC.Collect();
-var (_, _, full) = Time(() =>
+var fulls = new List<double>();
+long peak = 0;
+for (var i = 0; i < repeats; i++)
 {
-    var plant = PlantConfigurationReader.Load(config);
-    var r = HistorianIngest.Run(plant);
-    return (r.Files.Sum(f => f.DataRows), r.TagLedgers.Values.Sum(l => l.Used), 0.0);
-});
-var peak = Process.GetCurrentProcess().PeakWorkingSet64;
-// A second pass shows the steady state once the JIT has optimised the hot loop (a long-running service sees this).
-var (_, _, second) = Time(() =>
-{
-    var r = HistorianIngest.Run(PlantConfigurationReader.Load(config));
-    return (r.Files.Sum(f => f.DataRows), 0L, 0.0);
-});
-Console.WriteLine(FormattableString.Invariant($"full ingest, second pass in the same process: {second:0.00} s  ({second / bare:0.00}x the bare read)"));
-Console.WriteLine(FormattableString.Invariant($"file: {bytes / 1e6:0.0} MB, {rows} rows, {fields} fields"));
-Console.WriteLine(FormattableString.Invariant($"bare read and split:  {bare:0.00} s  {bytes / 1e6 / bare:0} MB/s  {rows / bare:0} rows/s  (peak working set {peakBare / 1e6:0} MB)"));
-Console.WriteLine(FormattableString.Invariant($"read and parse every number (one thread, csFastFloat): {parse:0.00} s  ({parsed} numbers)"));
-Console.WriteLine(FormattableString.Invariant($"full ingest (parse, units, ledger, alignment to 10 min, {Environment.ProcessorCount} cores): {full:0.00} s  {bytes / 1e6 / full:0} MB/s  {rows / full:0} rows/s  (peak working set {peak / 1e6:0} MB)"));
-Console.WriteLine(FormattableString.Invariant($"ratios: full ingest / bare read = {full / bare:0.00}x; full ingest / (read + parse numbers) = {full / parse:0.00}x"));
+    var (_, _, t1) = Time(() =>
+    {
+        var r = HistorianIngest.Run(PlantConfigurationReader.Load(config));
+        return (r.Files.Sum(f => f.DataRows), r.TagLedgers.Values.Sum(l => l.Used), 0.0);
+    });
+    fulls.Add(t1);
+    if (i == 0) peak = Process.GetCurrentProcess().PeakWorkingSet64;
+}
+double Best(List<double> x) => x.Min();
+double Median(List<double> x) => x.Order().ElementAt(x.Count / 2);
+var bare = Best(bares);
+var full = Best(fulls);
+Console.WriteLine(FormattableString.Invariant($"file: {bytes / 1e6:0.0} MB, {rows} rows, {fields} fields; {repeats} runs of each, best (median)"));
+Console.WriteLine(FormattableString.Invariant($"bare read and split (1 thread): {bare:0.000} s ({Median(bares):0.000})  {bytes / 1e6 / bare:0} MB/s  {rows / bare:0} rows/s  (peak working set {peakBare / 1e6:0} MB)"));
+Console.WriteLine(FormattableString.Invariant($"read and parse every number (1 thread, csFastFloat): {parse:0.00} s  ({parsed} numbers)"));
+Console.WriteLine(FormattableString.Invariant($"full ingest (parse, units, ledger, alignment to 10 min, {Environment.ProcessorCount} cores): {full:0.000} s ({Median(fulls):0.000})  {bytes / 1e6 / full:0} MB/s  {rows / full:0} rows/s  (peak working set {peak / 1e6:0} MB)"));
+Console.WriteLine(FormattableString.Invariant($"first full ingest in the process (JIT tiering up): {fulls[0]:0.000} s"));
+Console.WriteLine(FormattableString.Invariant($"ratio full ingest / bare read: best {full / bare:0.00}x, median {Median(fulls) / Median(bares):0.00}x, first pass / best bare {fulls[0] / bare:0.00}x (target 3x)"));
 
 static (long, long, double) Time(Func<(long, long, double)> f)
 {

@@ -121,8 +121,10 @@ internal sealed class PartBins(int columns)
         foreach (var key in _blocks.Keys.Order())
         {
             var (sum, count) = _blocks[key];
-            for (var k = 0; k < BlockIntervals; k++)
+            // Column by column, so that each tag's storage is written in sequence (interval by interval it would
+            // jump between all the tags' arrays, a cache miss per cell).
             for (var j = 0; j < Columns; j++)
+            for (var k = 0; k < BlockIntervals; k++)
             {
                 var cell = k * Columns + j;
                 if (count[cell] > 0) whole[j].Add((key << BlockBits) + k, sum[cell], count[cell]);

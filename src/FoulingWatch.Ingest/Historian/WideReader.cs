@@ -301,11 +301,14 @@ public static partial class HistorianIngest
             for (var j = 0; j < plans.Length; j++, cell++)
             {
                 var plan = plans[j];
+                // (The slow route's result has a variable of its own: one passed by reference would keep the quick
+                // route's value in memory instead of a register.)
                 if (!PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
                     || !((reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum))
                 {
-                    if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out reading)) continue;
+                    if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow)) continue;
                     // Counted as used with the others below: every read value is used unless the ledger says why not.
+                    reading = slow;
                 }
                 sums[cell] += reading;
                 counts[cell]++;
