@@ -276,6 +276,7 @@ public static partial class HistorianIngest
         var decimalByte = (byte)wide.Dialect.DecimalSeparator;
         var tsColumn = wide.TimestampColumn;
         var sink = target.Sink;
+        var failed = new int[plans.Length];
         long rows = 0;
         while (reader.Read())
         {
@@ -296,27 +297,57 @@ public static partial class HistorianIngest
             }
             if (target.Worker) target.Accepted.Add(utc);
             var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
-            // Hot loop: parse, convert with the column's resolved scale and offset, range-check, add to the interval.
-            // Anything else goes to SlowValue, which reads it the long way or counts why it is rejected.
-            for (var j = 0; j < plans.Length; j++, cell++)
+            if (sink is not null)
+            {
+                ReadRowInto(reader, part, wide, ledgers, sums, counts, cell, utc, sink);
+                continue;
+            }
+            // Hot loop, with no call in it (a call would make the JIT keep the loop's state in memory): parse,
+            // convert with the column's resolved scale and offset, range-check, add to the interval. The columns
+            // the quick route does not take are noted and read the long way after the loop.
+            var failedCount = 0;
+            for (var j = 0; j < plans.Length; j++)
             {
                 var plan = plans[j];
-                // (The slow route's result has a variable of its own: one passed by reference would keep the quick
-                // route's value in memory instead of a register.)
-                if (!PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
-                    || !((reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum))
+                if (PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
+                    && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
                 {
-                    if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow)) continue;
-                    // Counted as used with the others below: every read value is used unless the ledger says why not.
-                    reading = slow;
+                    sums[cell + j] += reading;
+                    counts[cell + j]++;
                 }
-                sums[cell] += reading;
-                counts[cell]++;
-                sink?.Add(plan.Tag, utc, reading);
+                else failed[failedCount++] = j;
+            }
+            for (var f = 0; f < failedCount; f++)
+            {
+                var j = failed[f];
+                if (SlowValue(plans[j], ledgers[j], reader, plans[j].Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow))
+                {
+                    sums[cell + j] += slow;
+                    counts[cell + j]++;
+                }
             }
         }
         // Each row is one read of every column: those not rejected (row or value) were used.
         for (var j = 0; j < plans.Length; j++) ledgers[j].CountUsed(rows - ledgers[j].Read);
         target.Rows += rows;
+    }
+
+    /// <summary>One record's values, each also handed to the raw-value sink (the watch service): the plain loop.</summary>
+    private static void ReadRowInto(CsvReader reader, FilePart part, WideFile wide, TagLedger[] ledgers, double[] sums, int[] counts, int cell, long utc, RawValueSink sink)
+    {
+        var decimalByte = (byte)wide.Dialect.DecimalSeparator;
+        for (var j = 0; j < wide.Plans.Length; j++)
+        {
+            var plan = wide.Plans[j];
+            if (!PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
+                || !((reading = plan.ToSi(reading)) >= plan.Minimum && reading <= plan.Maximum))
+            {
+                if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow)) continue;
+                reading = slow;
+            }
+            sums[cell + j] += reading;
+            counts[cell + j]++;
+            sink.Add(plan.Tag, utc, reading);
+        }
     }
 }
