@@ -1,5 +1,4 @@
 using System.Buffers;
-using System.Runtime.CompilerServices;
 using System.Text;
 using CsvHelper;
 using FoulingWatch.Ingest.Alignment;
@@ -264,8 +263,6 @@ public static partial class HistorianIngest
             : CsvReader.Create(new MemoryStream(part.Buffer, 0, part.Length, writable: false), options with { Encoding = dialect.Encoding }, leaveOpen: false);
     }
 
-    // Optimised at once: the loop runs a few times per file, too few for the tiered JIT to pay back its slow first tiers.
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
     {
         using var reader = OpenPart(part, wide.Dialect);
@@ -302,21 +299,7 @@ public static partial class HistorianIngest
                 ReadRowInto(reader, part, wide, ledgers, sums, counts, cell, utc, sink);
                 continue;
             }
-            // Hot loop, with no call in it (a call would make the JIT keep the loop's state in memory): parse,
-            // convert with the column's resolved scale and offset, range-check, add to the interval. The columns
-            // the quick route does not take are noted and read the long way after the loop.
-            var failedCount = 0;
-            for (var j = 0; j < plans.Length; j++)
-            {
-                var plan = plans[j];
-                if (PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
-                    && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
-                {
-                    sums[cell + j] += reading;
-                    counts[cell + j]++;
-                }
-                else failed[failedCount++] = j;
-            }
+            var failedCount = AddRow(reader, plans, decimalByte, sums, counts, cell, failed);
             for (var f = 0; f < failedCount; f++)
             {
                 var j = failed[f];
@@ -330,6 +313,28 @@ public static partial class HistorianIngest
         // Each row is one read of every column: those not rejected (row or value) were used.
         for (var j = 0; j < plans.Length; j++) ledgers[j].CountUsed(rows - ledgers[j].Read);
         target.Rows += rows;
+    }
+
+    /// <summary>
+    /// The hot loop over one record's columns, kept small so that its state stays in registers: parse, convert with
+    /// the column's resolved scale and offset, range-check, add to the interval. Returns how many columns the quick
+    /// route declined, listed in <paramref name="failed"/> for the caller to read the long way.
+    /// </summary>
+    private static int AddRow(CsvReader reader, ColumnPlan[] plans, byte decimalByte, double[] sums, int[] counts, int cell, int[] failed)
+    {
+        var failedCount = 0;
+        for (var j = 0; j < plans.Length; j++)
+        {
+            var plan = plans[j];
+            if (PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
+                && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
+            {
+                sums[cell + j] += reading;
+                counts[cell + j]++;
+            }
+            else failed[failedCount++] = j;
+        }
+        return failedCount;
     }
 
     /// <summary>One record's values, each also handed to the raw-value sink (the watch service): the plain loop.</summary>
