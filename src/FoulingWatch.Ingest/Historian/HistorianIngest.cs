@@ -168,23 +168,22 @@ public static partial class HistorianIngest
         }
     }
 
-    private static CsvReader OpenReader(string file, FileDialect dialect)
+    private static CsvReader OpenReader(string file, FileDialect dialect) =>
+        CsvReader.Create(ExportStream.OpenAt(file, dialect.HeaderByteOffset), ReaderOptions(dialect, hasHeader: true), leaveOpen: false);
+
+    /// <summary>How every export is read: the dialect's separator and encoding, line numbers kept for the messages.</summary>
+    private static CsvReaderOptions ReaderOptions(FileDialect dialect, bool hasHeader) => new()
     {
-        var stream = ExportStream.OpenAt(file, dialect.HeaderByteOffset);
-        var options = new CsvReaderOptions
-        {
-            Separator = dialect.Delimiter,
-            HasHeader = true,
-            // UTF-8 is the reader's native input; naming it would make the reader transcode.
-            Encoding = dialect.Encoding is UTF8Encoding ? null : dialect.Encoding,
-            // Trimming in the reader costs more than all the number parsing; fields are trimmed where they are used.
-            TrimWhitespace = false,
-            TrackLineNumbers = true,
-            FieldCountMismatch = CsvFieldCountHandling.Allow,
-            SkipEmptyLines = true,
-        };
-        return CsvReader.Create(stream, options, leaveOpen: false);
-    }
+        Separator = dialect.Delimiter,
+        HasHeader = hasHeader,
+        // UTF-8 is the reader's native input; naming it would make the reader transcode.
+        Encoding = dialect.Encoding is UTF8Encoding ? null : dialect.Encoding,
+        // Trimming in the reader costs more than all the number parsing; fields are trimmed where they are used.
+        TrimWhitespace = false,
+        TrackLineNumbers = true,
+        FieldCountMismatch = CsvFieldCountHandling.Allow,
+        SkipEmptyLines = true,
+    };
 
     private static FileReport ReadLong(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
         Dictionary<string, Channel> channels, Dictionary<string, List<string>> foundIn, long interval, long? windowStart, long? windowEnd, ref long otherRows,

@@ -247,20 +247,11 @@ public static partial class HistorianIngest
 
     private static CsvReader OpenPart(FilePart part, FileDialect dialect)
     {
-        var options = new CsvReaderOptions
-        {
-            Separator = dialect.Delimiter,
-            HasHeader = part.First,
-            // Trimming in the reader costs more than all the number parsing; fields are trimmed where they are used.
-            TrimWhitespace = false,
-            TrackLineNumbers = true,
-            FieldCountMismatch = CsvFieldCountHandling.Allow,
-            SkipEmptyLines = true,
-        };
+        var options = ReaderOptions(dialect, hasHeader: part.First);
         // UTF-8 is read in place; another encoding (Windows-1252) is transcoded by the reader.
-        return dialect.Encoding is UTF8Encoding
+        return options.Encoding is null
             ? CsvReader.Create(part.Buffer.AsMemory(0, part.Length), options)
-            : CsvReader.Create(new MemoryStream(part.Buffer, 0, part.Length, writable: false), options with { Encoding = dialect.Encoding }, leaveOpen: false);
+            : CsvReader.Create(new MemoryStream(part.Buffer, 0, part.Length, writable: false), options, leaveOpen: false);
     }
 
     private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
