@@ -234,7 +234,7 @@ public static partial class HistorianIngest
                 c.Ledger.CountRejected(r, () => Example(name, line, col, c.Reference.Tag, r, detail));
                 continue;
             }
-            if (SlowValue(plans[c.Reference.Tag], c.Ledger, reader, valueColumn, decimalByte, markers, name, dialect.HeaderLine - 1, out var si))
+            if (SlowValue(plans[c.Reference.Tag], c.Ledger, reader.GetSpan(valueColumn), valueColumn, decimalByte, markers, name, line, out var si))
             {
                 c.Ledger.CountUsed();
                 c.Bins.Add(utc / interval, si);
@@ -262,26 +262,26 @@ public static partial class HistorianIngest
     /// A value the quick route did not take (blanks, exponent, long digit strings, empty, marker, text, out of range):
     /// its SI value when it is usable, else false with the reason counted in the ledger. The caller counts a usable one.
     /// </summary>
-    private static bool SlowValue(ColumnPlan plan, TagLedger ledger, CsvReader reader, int column, byte decimalByte,
-        Dictionary<string, string> markers, string file, long lineOffset, out double si)
+    private static bool SlowValue(ColumnPlan plan, TagLedger ledger, ReadOnlySpan<byte> field, int column, byte decimalByte,
+        Dictionary<string, string> markers, string file, long line, out double si)
     {
-        var span = reader.GetSpan(column).TrimBlanks();
+        var span = field.TrimBlanks();
         if (TryReadNumber(span, decimalByte, out var reading))
         {
             si = plan.ToSi(reading);
             if (si >= plan.Minimum && si <= plan.Maximum) return true;
-            RejectValue(ledger, plan.Tag, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, lineOffset + reader.LineNumber, column);
+            RejectValue(ledger, plan.Tag, RejectReason.OutOfRange, reading.ToString(CultureInfo.InvariantCulture), file, line, column);
             return false;
         }
         si = double.NaN;
-        if (span.IsEmpty) { RejectValue(ledger, plan.Tag, RejectReason.Empty, null, file, lineOffset + reader.LineNumber, column); return false; }
+        if (span.IsEmpty) { RejectValue(ledger, plan.Tag, RejectReason.Empty, null, file, line, column); return false; }
         var text = Encoding.UTF8.GetString(span).Trim();
         if (markers.TryGetValue(text, out var marker))
         {
             ledger.CountMarker(marker);
-            RejectValue(ledger, plan.Tag, RejectReason.TextMarker, text, file, lineOffset + reader.LineNumber, column);
+            RejectValue(ledger, plan.Tag, RejectReason.TextMarker, text, file, line, column);
         }
-        else RejectValue(ledger, plan.Tag, RejectReason.NotANumber, text, file, lineOffset + reader.LineNumber, column);
+        else RejectValue(ledger, plan.Tag, RejectReason.NotANumber, text, file, line, column);
         return false;
     }
 

@@ -25,7 +25,17 @@ public static class PlainDecimal
     /// <summary>Parses all of <paramref name="s"/>, or returns false (the caller then tries the general parser).</summary>
     /// <remarks>A word-at-a-time (SWAR) variant was measured slower than this loop on the benchmark machine, so the loop stays.</remarks>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static bool TryParse(ReadOnlySpan<byte> s, byte decimalSeparator, out double value)
+    public static bool TryParse(ReadOnlySpan<byte> s, byte decimalSeparator, out double value) =>
+        ParsePrefix(s, decimalSeparator, out value) == s.Length;
+
+    /// <summary>
+    /// Reads the plain decimal at the start of <paramref name="s"/>, up to the first byte that is neither a digit nor
+    /// the (first) decimal separator, and returns how many bytes it took; -1 when that prefix is not a plain decimal
+    /// the quick route takes. A field is a plain decimal exactly when its prefix is the whole field, so a record can be
+    /// read field by field without finding the field ends first.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static int ParsePrefix(ReadOnlySpan<byte> s, byte decimalSeparator, out double value)
     {
         value = 0;
         var i = 0;
@@ -35,26 +45,23 @@ public static class PlainDecimal
             negative = s[0] == (byte)'-';
             i = 1;
         }
+        var digitsStart = i;
         ulong mantissa = 0;
-        var digits = 0;
         var fractionStart = -1;
         for (; i < s.Length; i++)
         {
             var d = (uint)(s[i] - (byte)'0');
-            if (d <= 9)
-            {
-                // 19 digits always fit in 64 bits; more are left to the general parser.
-                if (++digits > 19) return false;
-                mantissa = mantissa * 10 + d;
-            }
+            // Past 19 digits the mantissa wraps; such text is declined below by its digit count.
+            if (d <= 9) mantissa = mantissa * 10 + d;
             else if (s[i] == decimalSeparator && fractionStart < 0) fractionStart = i + 1;
-            else return false;
+            else break;
         }
-        if (digits == 0 || mantissa > ExactLimit) return false;
-        var fractionDigits = fractionStart < 0 ? 0 : s.Length - fractionStart;
-        if (fractionDigits >= PowersOfTen.Length) return false;
+        var fractionDigits = fractionStart < 0 ? 0 : i - fractionStart;
+        var digits = i - digitsStart - (fractionStart < 0 ? 0 : 1);
+        // 19 digits always fit in 64 bits; more, or a mantissa beyond 2^53, are left to the general parser.
+        if (digits == 0 || digits > 19 || mantissa > ExactLimit || fractionDigits >= PowersOfTen.Length) return -1;
         var magnitude = fractionDigits == 0 ? (double)mantissa : mantissa / PowersOfTen[fractionDigits];
         value = negative ? -magnitude : magnitude;
-        return true;
+        return i;
     }
 }

@@ -16,6 +16,12 @@ public static partial class HistorianIngest
 
     private static int PartBytes => PartBytesForTests ?? DefaultPartBytes;
 
+    /// <summary>Tests turn the plain-part route off on their own thread, to compare it with the CSV reader.</summary>
+    [ThreadStatic] internal static bool PlainRouteOffForTests;
+
+    /// <summary>Parts merged on this thread that were read by the plain-part route (tests and the benchmark check it is taken).</summary>
+    [ThreadStatic] internal static int PlainPartsRead;
+
     /// <summary>A column's conversion resolved once: SI = reading·Scale + Offset (density folded in), and its physical range.</summary>
     private sealed class ColumnPlan(int index, Channel channel)
     {
@@ -56,6 +62,8 @@ public static partial class HistorianIngest
         public bool Worker;
         public RawValueSink? Sink;
         public long Rows;
+        /// <summary>The part was read by the plain-part route, without the CSV reader.</summary>
+        public bool Plain;
 
         public void Clear()
         {
@@ -63,11 +71,12 @@ public static partial class HistorianIngest
             Bins.Clear();
             Accepted.Clear();
             Rows = 0;
+            Plain = false;
         }
     }
 
     private sealed record WideFile(string Name, HistorianSource Source, FileDialect Dialect, PlantConfiguration Config, ColumnPlan[] Plans, int TimestampColumn,
-        long Interval, long? WindowStart, long? WindowEnd, Dictionary<string, string> Markers)
+        long Interval, long? WindowStart, long? WindowEnd, Dictionary<string, string> Markers, bool PlainRoute)
     {
         private readonly System.Collections.Concurrent.ConcurrentBag<PartTarget> _spare = [];
 
@@ -124,7 +133,11 @@ public static partial class HistorianIngest
         var signature = string.Join("\u0001", plans.Select(p => p.Tag).Order(StringComparer.Ordinal));
         if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = [];
 
-        var wide = new WideFile(Path.GetFileName(file), source, dialect, config, plans.ToArray(), tsColumn, interval, windowStart, windowEnd, MarkerSet(source));
+        // The plain-part route reads UTF-8 bytes in place with single-byte delimiter and separator; the raw-value sink
+        // (watch service) keeps the CSV reader's route.
+        var plainRoute = !PlainRouteOffForTests && sink is null && dialect.Encoding is UTF8Encoding
+            && dialect.Delimiter < 128 && dialect.DecimalSeparator < 128 && dialect.Delimiter != dialect.DecimalSeparator;
+        var wide = new WideFile(Path.GetFileName(file), source, dialect, config, plans.ToArray(), tsColumn, interval, windowStart, windowEnd, MarkerSet(source), plainRoute);
         var whole = new FileState(wide.Plans.Select(p => p.Channel.Ledger).ToArray(), wide.Plans.Select(p => p.Channel.Bins).ToArray(), seen,
             new TimestampParser(source.Timestamp, config.Site.TimeZone), sink);
         var workers = Math.Clamp(Environment.ProcessorCount, 1, 8);
@@ -178,6 +191,7 @@ public static partial class HistorianIngest
             for (var j = 0; j < wide.Plans.Length; j++) whole.Ledgers[j].Merge(read.Ledgers[j]);
             read.Bins.MergeInto(whole.Bins);
             whole.Rows += read.Rows;
+            if (read.Plain) PlainPartsRead++;
             if (read.Worker) wide.Return(read);
         }
     }
@@ -256,13 +270,35 @@ public static partial class HistorianIngest
 
     private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
     {
+        if (wide.PlainRoute && !part.First && IsPlain(part.Buffer.AsSpan(0, part.Length)))
+        {
+            ReadPlainPart(part, wide, target);
+            target.Plain = true;
+        }
+        else ReadCsvPart(part, wide, target);
+    }
+
+    /// <summary>
+    /// A part whose records are plain delimited text, where CSV's quoting rules have nothing to do: no quote anywhere,
+    /// and every carriage return part of a CRLF line end (a lone CR is a line break to the CSV reader).
+    /// </summary>
+    internal static bool IsPlain(ReadOnlySpan<byte> data)
+    {
+        var at = data.IndexOfAny((byte)'"', (byte)'\r');
+        if (at < 0) return true;
+        if (data[at] == (byte)'"' || data[at..].Contains((byte)'"')) return false;
+        return data[at..].Count((byte)'\r') == data[at..].Count("\r\n"u8);
+    }
+
+    /// <summary>The rows of a part read by the CSV reader (quoting, other encodings, the header part).</summary>
+    private static void ReadCsvPart(FilePart part, WideFile wide, PartTarget target)
+    {
         using var reader = OpenPart(part, wide.Dialect);
         if (part.First) reader.ReadHeader();
         var skip = part.First ? wide.Dialect.MetadataRows : 0;
         var plans = wide.Plans;
         var ledgers = target.Ledgers;
         var decimalByte = (byte)wide.Dialect.DecimalSeparator;
-        var tsColumn = wide.TimestampColumn;
         var sink = target.Sink;
         var failed = new int[plans.Length];
         long rows = 0;
@@ -270,39 +306,148 @@ public static partial class HistorianIngest
         {
             if (skip > 0) { skip--; continue; }
             rows++;
-            var rowReason = TimeReason(target.Parser, reader.GetSpan(tsColumn), wide.WindowStart, wide.WindowEnd, out var utc);
-            if (rowReason is null && !target.Seen.Add(utc)) rowReason = RejectReason.Duplicate;
-            if (rowReason is { } rr)
-            {
-                var line = part.LineBefore + reader.LineNumber;
-                var tsText = rr is RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime ? Encoding.UTF8.GetString(reader.GetSpan(tsColumn)) : null;
-                for (var j = 0; j < plans.Length; j++)
-                {
-                    var tag = plans[j].Tag;
-                    ledgers[j].CountRejected(rr, () => Example(wide.Name, line, tsColumn + 1, tag, rr, tsText));
-                }
-                continue;
-            }
-            if (target.Worker) target.Accepted.Add(utc);
+            var line = part.LineBefore + reader.LineNumber;
+            if (!AcceptRow(wide, target, reader.GetSpan(wide.TimestampColumn), line, out var utc)) continue;
             var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
             if (sink is not null)
             {
-                ReadRowInto(reader, part, wide, ledgers, sums, counts, cell, utc, sink);
+                ReadRowInto(reader, line, wide, ledgers, sums, counts, cell, utc, sink);
                 continue;
             }
             var failedCount = AddRow(reader, plans, decimalByte, sums, counts, cell, failed);
             for (var f = 0; f < failedCount; f++)
             {
                 var j = failed[f];
-                if (SlowValue(plans[j], ledgers[j], reader, plans[j].Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow))
+                if (SlowValue(plans[j], ledgers[j], reader.GetSpan(plans[j].Index), plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
                 {
                     sums[cell + j] += slow;
                     counts[cell + j]++;
                 }
             }
         }
-        // Each row is one read of every column: those not rejected (row or value) were used.
-        for (var j = 0; j < plans.Length; j++) ledgers[j].CountUsed(rows - ledgers[j].Read);
+        CountUsed(target, rows);
+    }
+
+    /// <summary>
+    /// The rows of a plain part (<see cref="IsPlain"/>) read in place, field by field, each number parsed as its
+    /// field is found: the same fields the CSV reader gives (delimiter-separated, untrimmed, a missing field empty,
+    /// empty lines skipped), without finding every field's ends first.
+    /// </summary>
+    private static void ReadPlainPart(FilePart part, WideFile wide, PartTarget target)
+    {
+        var data = part.Buffer.AsSpan(0, part.Length);
+        var plans = wide.Plans;
+        var ledgers = target.Ledgers;
+        var delimiter = (byte)wide.Dialect.Delimiter;
+        var decimalByte = (byte)wide.Dialect.DecimalSeparator;
+        var declined = new (int Plan, int Start, int End)[plans.Length];
+        var line = part.LineBefore;
+        long rows = 0;
+        while (!data.IsEmpty)
+        {
+            var lineEnd = data.IndexOf((byte)'\n');
+            var record = lineEnd < 0 ? data : data[..lineEnd];
+            data = lineEnd < 0 ? default : data[(lineEnd + 1)..];
+            line++;
+            if (!record.IsEmpty && record[^1] == (byte)'\r') record = record[..^1];
+            if (record.IsEmpty) continue;
+            rows++;
+            if (!AcceptRow(wide, target, Field(record, wide.TimestampColumn, delimiter), line, out var utc)) continue;
+            var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
+            var declinedCount = AddPlainRecord(record, plans, delimiter, decimalByte, sums, counts, cell, declined);
+            for (var f = 0; f < declinedCount; f++)
+            {
+                var (j, start, end) = declined[f];
+                if (SlowValue(plans[j], ledgers[j], record[start..end], plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
+                {
+                    sums[cell + j] += slow;
+                    counts[cell + j]++;
+                }
+            }
+        }
+        CountUsed(target, rows);
+    }
+
+    /// <summary>Field <paramref name="index"/> of a plain record; empty when the record has fewer fields (as the CSV reader gives it).</summary>
+    private static ReadOnlySpan<byte> Field(ReadOnlySpan<byte> record, int index, byte delimiter)
+    {
+        for (var k = 0; k < index; k++)
+        {
+            var next = record.IndexOf(delimiter);
+            if (next < 0) return default;
+            record = record[(next + 1)..];
+        }
+        var end = record.IndexOf(delimiter);
+        return end < 0 ? record : record[..end];
+    }
+
+    /// <summary>
+    /// The hot loop over one plain record: walk to each planned column, parse its number up to the delimiter, convert,
+    /// range-check, add to the interval. Fields the quick route declines are listed (plan, start, end) for the caller.
+    /// </summary>
+    private static int AddPlainRecord(ReadOnlySpan<byte> record, ColumnPlan[] plans, byte delimiter, byte decimalByte, double[] sums, int[] counts, int cell,
+        (int Plan, int Start, int End)[] declined)
+    {
+        var declinedCount = 0;
+        var at = 0; // where field `column` starts; past the end when the record has no such field
+        var column = 0;
+        for (var j = 0; j < plans.Length; j++)
+        {
+            var plan = plans[j];
+            while (column < plan.Index && at <= record.Length)
+            {
+                var next = record[at..].IndexOf(delimiter);
+                at = next < 0 ? record.Length + 1 : at + next + 1;
+                column++;
+            }
+            if (at > record.Length)
+            {
+                declined[declinedCount++] = (j, 0, 0);
+                continue;
+            }
+            var field = record[at..];
+            var used = PlainDecimal.ParsePrefix(field, decimalByte, out var reading);
+            if (used >= 0 && (used == field.Length || field[used] == delimiter)
+                && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
+            {
+                sums[cell + j] += reading;
+                counts[cell + j]++;
+            }
+            else
+            {
+                used = field.IndexOf(delimiter);
+                if (used < 0) used = field.Length;
+                declined[declinedCount++] = (j, at, at + used);
+            }
+            at += used + 1;
+            column++;
+        }
+        return declinedCount;
+    }
+
+    /// <summary>A row's timestamp read and checked (window, duplicate); a rejected row is counted against every tag of the file.</summary>
+    private static bool AcceptRow(WideFile wide, PartTarget target, ReadOnlySpan<byte> timestamp, long line, out long utc)
+    {
+        var reason = TimeReason(target.Parser, timestamp, wide.WindowStart, wide.WindowEnd, out utc);
+        if (reason is null && !target.Seen.Add(utc)) reason = RejectReason.Duplicate;
+        if (reason is { } rr)
+        {
+            var text = rr is RejectReason.BadTimestamp or RejectReason.NonexistentLocalTime ? Encoding.UTF8.GetString(timestamp) : null;
+            for (var j = 0; j < wide.Plans.Length; j++)
+            {
+                var tag = wide.Plans[j].Tag;
+                target.Ledgers[j].CountRejected(rr, () => Example(wide.Name, line, wide.TimestampColumn + 1, tag, rr, text));
+            }
+            return false;
+        }
+        if (target.Worker) target.Accepted.Add(utc);
+        return true;
+    }
+
+    /// <summary>Each row is one read of every column: those not rejected (row or value) were used.</summary>
+    private static void CountUsed(PartTarget target, long rows)
+    {
+        for (var j = 0; j < target.Ledgers.Length; j++) target.Ledgers[j].CountUsed(rows - target.Ledgers[j].Read);
         target.Rows += rows;
     }
 
@@ -329,7 +474,7 @@ public static partial class HistorianIngest
     }
 
     /// <summary>One record's values, each also handed to the raw-value sink (the watch service): the plain loop.</summary>
-    private static void ReadRowInto(CsvReader reader, FilePart part, WideFile wide, TagLedger[] ledgers, double[] sums, int[] counts, int cell, long utc, RawValueSink sink)
+    private static void ReadRowInto(CsvReader reader, long line, WideFile wide, TagLedger[] ledgers, double[] sums, int[] counts, int cell, long utc, RawValueSink sink)
     {
         var decimalByte = (byte)wide.Dialect.DecimalSeparator;
         for (var j = 0; j < wide.Plans.Length; j++)
@@ -338,7 +483,7 @@ public static partial class HistorianIngest
             if (!PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
                 || !((reading = plan.ToSi(reading)) >= plan.Minimum && reading <= plan.Maximum))
             {
-                if (!SlowValue(plan, ledgers[j], reader, plan.Index, decimalByte, wide.Markers, wide.Name, part.LineBefore, out var slow)) continue;
+                if (!SlowValue(plan, ledgers[j], reader.GetSpan(plan.Index), plan.Index, decimalByte, wide.Markers, wide.Name, line, out var slow)) continue;
                 reading = slow;
             }
             sums[cell + j] += reading;

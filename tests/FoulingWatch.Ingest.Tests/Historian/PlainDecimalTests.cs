@@ -21,6 +21,10 @@ public class PlainDecimalTests
             Assert.True(runtime, $"'{text}' was accepted but is not a plain decimal");
             Assert.True(BitConverter.DoubleToInt64Bits(expected) == BitConverter.DoubleToInt64Bits(value), $"'{text}': {value:R} vs {expected:R}");
         }
+        // Read as the first field of a record: the prefix ends exactly at the delimiter when, and only when, the field is taken.
+        var used = PlainDecimal.ParsePrefix(Encoding.ASCII.GetBytes(text + ";7;x"), separator, out var prefixValue);
+        Assert.True(accepted == (used == text.Length), $"'{text};7;x': prefix of {used} bytes, field taken: {accepted}");
+        if (accepted) Assert.Equal(BitConverter.DoubleToInt64Bits(value), BitConverter.DoubleToInt64Bits(prefixValue));
     }
 
     [Theory]
