@@ -12,12 +12,84 @@ namespace FoulingWatch.Ingest.Tests.Historian;
 /// </summary>
 public class FilePartsTests
 {
-    private static IngestResult Read(string configPath, int? partBytes)
+    private static IngestResult Read(string configPath, int? partBytes, bool plainRoute = true)
     {
         HistorianIngest.PartBytesForTests = partBytes;
+        HistorianIngest.PlainRouteOffForTests = !plainRoute;
         try { return HistorianIngest.Run(PlantConfigurationReader.Load(configPath)); }
-        finally { HistorianIngest.PartBytesForTests = null; }
+        finally { HistorianIngest.PartBytesForTests = null; HistorianIngest.PlainRouteOffForTests = false; }
     }
+
+    /// <summary>
+    /// An export with what plain text can hold besides plain numbers: blank lines, a line of blanks, short and long
+    /// records, a trailing delimiter, padded values, exponents, long digit strings, signs, markers, empty fields,
+    /// out-of-range readings, unreadable timestamps, duplicates, the timestamp in the second column, and one quoted
+    /// record (its part goes to the CSV reader).
+    /// </summary>
+    private static string Awkward(string newline, char delimiter, char separator)
+    {
+        var rng = new Random(11);
+        string N(double v, string format) => v.ToString(format, System.Globalization.CultureInfo.InvariantCulture).Replace('.', separator);
+        var d = delimiter;
+        var sb = new StringBuilder($"Note{d}Timestamp{d}FI-101{d}TI-101{d}TI-102{d}FI-201{d}TI-201{d}TI-202{newline}");
+        var start = new DateTime(2026, 3, 2, 0, 0, 0, DateTimeKind.Utc);
+        for (var m = 0; m < 600; m++)
+        {
+            var ts = m % 97 == 5 ? "2026-03-02 25:00" : start.AddMinutes(m % 211 == 7 ? m - 3 : m).ToString("yyyy-MM-ddTHH:mm:ssZ", System.Globalization.CultureInfo.InvariantCulture);
+            var flow = (m % 13) switch
+            {
+                1 => "Bad", 2 => "", 3 => " " + N(100 + rng.NextDouble(), "0.00") + " ", 4 => N(1.05, "0.00") + "e2", 5 => "0000000000000000000101" + separator + "5",
+                6 => "+" + N(99.5, "0.0"), 7 => "-" + N(5, "0.0"), 8 => "No Data", 9 => N(100, "0") + separator, _ => N(100 + 10 * rng.NextDouble(), "0.000"),
+            };
+            string[] fields = [m % 50 == 0 ? "shift change" : "", ts, flow, N(250 + rng.NextDouble(), "0.00"), N(m % 41 == 0 ? 9999 : 180 + rng.NextDouble(), "0.0"),
+                N(90 + rng.NextDouble(), "0.00"), N(40 + rng.NextDouble(), "0.00"), N(95 + rng.NextDouble(), "0.00")];
+            var record = m % 37 == 3 ? string.Join(d, fields.Take(5)) // short: the last three fields missing
+                : m % 43 == 4 ? string.Join(d, fields) + d + "extra" + d + "1" // long: extra fields ignored
+                : m % 29 == 6 ? string.Join(d, fields) + d // trailing delimiter
+                : string.Join(d, fields);
+            if (m == 301) record = "\"quoted" + d + " note\"" + record; // a quote: this record's part goes to the CSV reader
+            sb.Append(record).Append(newline);
+            if (m % 53 == 9) sb.Append(newline); // a blank line
+            if (m % 89 == 10) sb.Append("   ").Append(newline); // a line of blanks is a record of one field
+        }
+        return sb.ToString();
+    }
+
+    [Theory]
+    [InlineData("\n", ',', '.')]
+    [InlineData("\r\n", ',', '.')]
+    [InlineData("\r\n", ';', ',')]
+    [InlineData("\n", '\t', '.')]
+    public void Plain_parts_read_in_place_give_what_the_csv_reader_gives(string newline, char delimiter, char separator)
+    {
+        // Reference: the CSV reader (RFC 4180 rules) on the same parts; the plain route must be taken for most of them.
+        var source = $$"""{ "files": ["awkward.csv"], "delimiter": "{{(delimiter == '\t' ? "\\t" : delimiter.ToString())}}", "decimal": "{{separator}}", "timestamp": { "column": "Timestamp" } }""";
+        using var plant = new TestPlant().WithFile("awkward.csv", Awkward(newline, delimiter, separator))
+            .WithConfig(source, data: "\"interval\": \"10 min\"");
+        foreach (var size in new[] { 64, 300, 2000 })
+        {
+            HistorianIngest.PlainPartsRead = 0;
+            var csv = Read(plant.ConfigPath, size, plainRoute: false);
+            Assert.Equal(0, HistorianIngest.PlainPartsRead);
+            var plain = Read(plant.ConfigPath, size);
+            Assert.True(HistorianIngest.PlainPartsRead > 10, $"parts of {size} bytes: {HistorianIngest.PlainPartsRead} read by the plain route");
+            AssertSame(csv, plain);
+            var flow = plain.TagLedgers["FI-101"];
+            Assert.Equal(flow.Read, flow.Used + flow.RejectedTotal);
+            Assert.True(flow.Rejected[(int)RejectReason.TextMarker] > 0 && flow.Rejected[(int)RejectReason.Empty] > 0 && flow.Rejected[(int)RejectReason.BadTimestamp] > 0
+                && flow.Rejected[(int)RejectReason.Duplicate] > 0 && plain.TagLedgers["TI-102"].Rejected[(int)RejectReason.OutOfRange] > 0, "every kind of rejection occurs");
+        }
+    }
+
+    [Theory]
+    [InlineData("1,2\n3,4\n", true)]
+    [InlineData("1,2\r\n3,4\r\n", true)]
+    [InlineData("1,2\r3,4\n", false)]      // a lone CR is a line break to the CSV reader
+    [InlineData("1,2\r\n3,4\r\r\n", false)]
+    [InlineData("1,\"2\"\n", false)]
+    [InlineData("1,2\r\n\"3\",4\n", false)]
+    public void A_part_is_plain_without_quotes_and_lone_carriage_returns(string text, bool plain) =>
+        Assert.Equal(plain, HistorianIngest.IsPlain(Encoding.ASCII.GetBytes(text)));
 
     private static void AssertSame(IngestResult whole, IngestResult parts)
     {
