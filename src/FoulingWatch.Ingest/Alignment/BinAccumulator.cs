@@ -35,6 +35,40 @@ internal sealed class BinAccumulator
         if (bin > MaximumBin) MaximumBin = bin;
     }
 
+    /// <summary>
+    /// Adds a run of intervals' sums and counts, starting at <paramref name="firstBin"/>; the run must not cross a
+    /// chunk (a run aligned to a power of two no larger than the chunk never does). Intervals with no values are skipped.
+    /// </summary>
+    public void AddRun(long firstBin, ReadOnlySpan<double> sums, ReadOnlySpan<int> counts)
+    {
+        var key = firstBin >> ChunkBits;
+        if (key != (firstBin + sums.Length - 1) >> ChunkBits) throw new ArgumentException("the run crosses a chunk", nameof(firstBin));
+        int first = -1, last = -1;
+        for (var k = 0; k < counts.Length; k++)
+            if (counts[k] > 0) { if (first < 0) first = k; last = k; }
+        if (first < 0) return;
+        if (key != _lastChunkKey)
+        {
+            if (!_chunks.TryGetValue(key, out _lastChunk))
+            {
+                _lastChunk = (new double[1 << ChunkBits], new int[1 << ChunkBits]);
+                _chunks[key] = _lastChunk;
+            }
+            _lastChunkKey = key;
+        }
+        var at = (int)(firstBin & Mask);
+        var sum = _lastChunk.Sum.AsSpan(at, sums.Length);
+        var count = _lastChunk.Count.AsSpan(at, counts.Length);
+        for (var k = first; k <= last; k++)
+            if (counts[k] > 0)
+            {
+                sum[k] += sums[k];
+                count[k] += counts[k];
+            }
+        if (firstBin + first < MinimumBin) MinimumBin = firstBin + first;
+        if (firstBin + last > MaximumBin) MaximumBin = firstBin + last;
+    }
+
     /// <summary>Mean per interval over [firstBin, firstBin + count); NaN where the interval holds no value.</summary>
     public double[] Means(long firstBin, int count)
     {
@@ -84,14 +118,20 @@ public static class GapBridge
 }
 
 /// <summary>
-/// Sums and counts of all the columns of one part of a wide export, per grid interval: the cells of one interval
-/// lie side by side, so a record's values go to adjacent cells found once per record. Blocks are reused after
-/// <see cref="Clear"/>, so a worker reading part after part allocates nothing new.
+/// Sums and counts of all the columns of one part of a wide export, per grid interval, in blocks of 256 intervals.
+/// Within a block each column's cells lie in sequence (column j at [j · Stride, j · Stride + 256)), so the merge into
+/// the per-tag accumulators reads and writes in sequence; the stride is padded past a power of two so that a record's
+/// cells, one per column, do not all fall into the same few cache sets. Blocks are reused after <see cref="Clear"/>,
+/// so a worker reading part after part allocates nothing new.
 /// </summary>
 internal sealed class PartBins(int columns)
 {
     private const int BlockBits = 8;
     private const int BlockIntervals = 1 << BlockBits;
+
+    /// <summary>Cells from one column to the next within a block.</summary>
+    public const int Stride = BlockIntervals + 8;
+
     private readonly Dictionary<long, (double[] Sum, int[] Count)> _blocks = new();
     private readonly Stack<(double[] Sum, int[] Count)> _free = new();
     private long _lastKey = long.MinValue;
@@ -99,7 +139,7 @@ internal sealed class PartBins(int columns)
 
     public int Columns { get; } = columns;
 
-    /// <summary>The cells of interval <paramref name="bin"/>: column j's sum and count are at [offset + j].</summary>
+    /// <summary>The cells of interval <paramref name="bin"/>: column j's sum and count are at [offset + j · <see cref="Stride"/>].</summary>
     public (double[] Sum, int[] Count, int Offset) Cells(long bin)
     {
         var key = bin >> BlockBits;
@@ -107,12 +147,12 @@ internal sealed class PartBins(int columns)
         {
             if (!_blocks.TryGetValue(key, out _last))
             {
-                _last = _free.Count > 0 ? _free.Pop() : (new double[BlockIntervals * Columns], new int[BlockIntervals * Columns]);
+                _last = _free.Count > 0 ? _free.Pop() : (new double[Stride * Columns], new int[Stride * Columns]);
                 _blocks[key] = _last;
             }
             _lastKey = key;
         }
-        return (_last.Sum, _last.Count, (int)(bin & (BlockIntervals - 1)) * Columns);
+        return (_last.Sum, _last.Count, (int)(bin & (BlockIntervals - 1)));
     }
 
     /// <summary>Adds the part's sums and counts to the file's per-tag accumulators, in interval order.</summary>
@@ -121,14 +161,8 @@ internal sealed class PartBins(int columns)
         foreach (var key in _blocks.Keys.Order())
         {
             var (sum, count) = _blocks[key];
-            // Column by column, so that each tag's storage is written in sequence (interval by interval it would
-            // jump between all the tags' arrays, a cache miss per cell).
             for (var j = 0; j < Columns; j++)
-            for (var k = 0; k < BlockIntervals; k++)
-            {
-                var cell = k * Columns + j;
-                if (count[cell] > 0) whole[j].Add((key << BlockBits) + k, sum[cell], count[cell]);
-            }
+                whole[j].AddRun(key << BlockBits, sum.AsSpan(j * Stride, BlockIntervals), count.AsSpan(j * Stride, BlockIntervals));
         }
     }
 

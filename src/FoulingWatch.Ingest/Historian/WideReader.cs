@@ -59,6 +59,8 @@ public static partial class HistorianIngest
         public TimestampParser Parser = null!;
         /// <summary>For a worker's part: the timestamps it accepted, checked against the file's set when the part is merged.</summary>
         public readonly List<long> Accepted = [];
+        /// <summary>The earliest of <see cref="Accepted"/>: a part wholly after the file's latest instant needs no duplicate lookups.</summary>
+        public long EarliestAccepted = long.MaxValue;
         public bool Worker;
         public RawValueSink? Sink;
         public long Rows;
@@ -70,6 +72,7 @@ public static partial class HistorianIngest
             for (var j = 0; j < Ledgers.Length; j++) Ledgers[j] = TagLedger.Part(Ledgers[j].Tag);
             Bins.Clear();
             Accepted.Clear();
+            EarliestAccepted = long.MaxValue;
             Rows = 0;
             Plain = false;
         }
@@ -83,7 +86,9 @@ public static partial class HistorianIngest
         /// <summary>A worker's target: its own duplicate set and clock (reused from a merged part when one is spare).</summary>
         public PartTarget Rent()
         {
-            if (!_spare.TryTake(out var target)) target = new PartTarget(Plans);
+            // Cleared here, on the worker's thread, not at the merge.
+            if (_spare.TryTake(out var target)) target.Clear();
+            else target = new PartTarget(Plans);
             target.Seen.Clear();
             target.Parser = new TimestampParser(Source.Timestamp, Config.Site.TimeZone);
             target.Worker = true;
@@ -91,17 +96,18 @@ public static partial class HistorianIngest
             return target;
         }
 
-        public void Return(PartTarget target)
-        {
-            target.Clear();
-            _spare.Add(target);
-        }
+        public void Return(PartTarget target) => _spare.Add(target);
     }
 
     /// <summary>The file's own state: ledgers and bins per tag, the timestamps read, the clock carried from part to part.</summary>
     private sealed record FileState(TagLedger[] Ledgers, BinAccumulator[] Bins, HashSet<long> Seen, TimestampParser Parser, RawValueSink? Sink)
     {
         public long Rows;
+
+        /// <summary>No timestamp in <see cref="Seen"/> is later than this (it may hold an earlier file's with the same columns).</summary>
+        public long LatestSeen => Math.Max(SeenBefore, Parser.LatestUtc);
+
+        public long SeenBefore { get; } = Seen.Count == 0 ? long.MinValue : Seen.Max();
     }
 
     /// <remarks>
@@ -176,7 +182,7 @@ public static partial class HistorianIngest
         using (part)
         {
             var read = work?.GetAwaiter().GetResult();
-            if (read is null || read.Parser.AmbiguousAsDaylight + read.Parser.AmbiguousAsStandard > 0 || read.Accepted.Exists(whole.Seen.Contains))
+            if (read is null || read.Parser.AmbiguousAsDaylight + read.Parser.AmbiguousAsStandard > 0 || (read.EarliestAccepted <= whole.LatestSeen && read.Accepted.Exists(whole.Seen.Contains)))
             {
                 // Read in order against the file's own timestamps and clock: exactly what one pass would do.
                 if (read is not null) wide.Return(read);
@@ -320,8 +326,8 @@ public static partial class HistorianIngest
                 var j = failed[f];
                 if (SlowValue(plans[j], ledgers[j], reader.GetSpan(plans[j].Index), plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
                 {
-                    sums[cell + j] += slow;
-                    counts[cell + j]++;
+                    sums[cell + j * PartBins.Stride] += slow;
+                    counts[cell + j * PartBins.Stride]++;
                 }
             }
         }
@@ -360,8 +366,8 @@ public static partial class HistorianIngest
                 var (j, start, end) = declined[f];
                 if (SlowValue(plans[j], ledgers[j], record[start..end], plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
                 {
-                    sums[cell + j] += slow;
-                    counts[cell + j]++;
+                    sums[cell + j * PartBins.Stride] += slow;
+                    counts[cell + j * PartBins.Stride]++;
                 }
             }
         }
@@ -410,8 +416,8 @@ public static partial class HistorianIngest
             if (used >= 0 && (used == field.Length || field[used] == delimiter)
                 && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
             {
-                sums[cell + j] += reading;
-                counts[cell + j]++;
+                sums[cell + j * PartBins.Stride] += reading;
+                counts[cell + j * PartBins.Stride]++;
             }
             else
             {
@@ -440,7 +446,11 @@ public static partial class HistorianIngest
             }
             return false;
         }
-        if (target.Worker) target.Accepted.Add(utc);
+        if (target.Worker)
+        {
+            target.Accepted.Add(utc);
+            if (utc < target.EarliestAccepted) target.EarliestAccepted = utc;
+        }
         return true;
     }
 
@@ -465,8 +475,8 @@ public static partial class HistorianIngest
             if (PlainDecimal.TryParse(reader.GetSpan(plan.Index), decimalByte, out var reading)
                 && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
             {
-                sums[cell + j] += reading;
-                counts[cell + j]++;
+                sums[cell + j * PartBins.Stride] += reading;
+                counts[cell + j * PartBins.Stride]++;
             }
             else failed[failedCount++] = j;
         }
@@ -486,8 +496,8 @@ public static partial class HistorianIngest
                 if (!SlowValue(plan, ledgers[j], reader.GetSpan(plan.Index), plan.Index, decimalByte, wide.Markers, wide.Name, line, out var slow)) continue;
                 reading = slow;
             }
-            sums[cell + j] += reading;
-            counts[cell + j]++;
+            sums[cell + j * PartBins.Stride] += reading;
+            counts[cell + j * PartBins.Stride]++;
             sink.Add(plan.Tag, utc, reading);
         }
     }
