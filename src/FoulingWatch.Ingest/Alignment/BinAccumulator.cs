@@ -132,10 +132,18 @@ internal sealed class PartBins(int columns)
     /// <summary>Cells from one column to the next within a block.</summary>
     public const int Stride = BlockIntervals + 8;
 
-    private readonly Dictionary<long, (double[] Sum, int[] Count)> _blocks = new();
-    private readonly Stack<(double[] Sum, int[] Count)> _free = new();
+    /// <summary>One block's cells, and the first and last of its intervals that were written.</summary>
+    private sealed class Block(int columns)
+    {
+        public readonly double[] Sum = new double[Stride * columns];
+        public readonly int[] Count = new int[Stride * columns];
+        public int First = int.MaxValue, Last = -1;
+    }
+
+    private readonly Dictionary<long, Block> _blocks = new();
+    private readonly Stack<Block> _free = new();
     private long _lastKey = long.MinValue;
-    private (double[] Sum, int[] Count) _last;
+    private Block _last = null!;
 
     public int Columns { get; } = columns;
 
@@ -145,14 +153,17 @@ internal sealed class PartBins(int columns)
         var key = bin >> BlockBits;
         if (key != _lastKey)
         {
-            if (!_blocks.TryGetValue(key, out _last))
+            if (!_blocks.TryGetValue(key, out _last!))
             {
-                _last = _free.Count > 0 ? _free.Pop() : (new double[Stride * Columns], new int[Stride * Columns]);
+                _last = _free.Count > 0 ? _free.Pop() : new Block(Columns);
                 _blocks[key] = _last;
             }
             _lastKey = key;
         }
-        return (_last.Sum, _last.Count, (int)(bin & (BlockIntervals - 1)));
+        var k = (int)(bin & (BlockIntervals - 1));
+        if (k < _last.First) _last.First = k;
+        if (k > _last.Last) _last.Last = k;
+        return (_last.Sum, _last.Count, k);
     }
 
     /// <summary>Adds the part's sums and counts to the file's per-tag accumulators, in interval order.</summary>
@@ -160,9 +171,10 @@ internal sealed class PartBins(int columns)
     {
         foreach (var key in _blocks.Keys.Order())
         {
-            var (sum, count) = _blocks[key];
+            var block = _blocks[key];
+            var length = block.Last - block.First + 1;
             for (var j = 0; j < Columns; j++)
-                whole[j].AddRun(key << BlockBits, sum.AsSpan(j * Stride, BlockIntervals), count.AsSpan(j * Stride, BlockIntervals));
+                whole[j].AddRun((key << BlockBits) + block.First, block.Sum.AsSpan(j * Stride + block.First, length), block.Count.AsSpan(j * Stride + block.First, length));
         }
     }
 
@@ -170,8 +182,13 @@ internal sealed class PartBins(int columns)
     {
         foreach (var block in _blocks.Values)
         {
-            Array.Clear(block.Sum);
-            Array.Clear(block.Count);
+            var length = block.Last - block.First + 1;
+            for (var j = 0; j < Columns; j++)
+            {
+                block.Sum.AsSpan(j * Stride + block.First, length).Clear();
+                block.Count.AsSpan(j * Stride + block.First, length).Clear();
+            }
+            (block.First, block.Last) = (int.MaxValue, -1);
             _free.Push(block);
         }
         _blocks.Clear();

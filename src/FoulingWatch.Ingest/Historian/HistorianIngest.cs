@@ -51,7 +51,7 @@ public static partial class HistorianIngest
         public required TagReference Reference;
         public readonly BinAccumulator Bins = new();
         public TagLedger Ledger = null!;
-        public HashSet<long>? SeenTimestamps;
+        public TimestampSet? SeenTimestamps;
     }
 
     /// <param name="requireAllTags">False when one file of many is read (the watch service): tags absent from it are not an error.</param>
@@ -82,7 +82,7 @@ public static partial class HistorianIngest
         var done = 0;
         foreach (var source in config.Data.Sources)
         {
-            var signatures = new Dictionary<string, HashSet<long>>(StringComparer.Ordinal);
+            var signatures = new Dictionary<string, TimestampSet>(StringComparer.Ordinal);
             foreach (var file in source.Files)
             {
                 var dialect = FileDialectDetector.Detect(file, source);
@@ -220,7 +220,7 @@ public static partial class HistorianIngest
             var line = dialect.HeaderLine - 1 + reader.LineNumber;
             var reason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
             if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn).TrimBlanks()))) reason = RejectReason.BadQuality;
-            c.SeenTimestamps ??= [];
+            c.SeenTimestamps ??= new TimestampSet();
             if (reason is null && !c.SeenTimestamps.Add(utc)) reason = RejectReason.Duplicate;
             if (reason is { } r)
             {

@@ -55,7 +55,7 @@ public static partial class HistorianIngest
         public readonly TagLedger[] Ledgers = plans.Select(p => TagLedger.Part(p.Tag)).ToArray();
         public readonly PartBins Bins = new(plans.Length);
         /// <summary>Timestamps already read: the part's own (a worker), or the file's (a part read in order).</summary>
-        public HashSet<long> Seen = [];
+        public TimestampSet Seen = new();
         public TimestampParser Parser = null!;
         /// <summary>For a worker's part: the timestamps it accepted, checked against the file's set when the part is merged.</summary>
         public readonly List<long> Accepted = [];
@@ -100,14 +100,9 @@ public static partial class HistorianIngest
     }
 
     /// <summary>The file's own state: ledgers and bins per tag, the timestamps read, the clock carried from part to part.</summary>
-    private sealed record FileState(TagLedger[] Ledgers, BinAccumulator[] Bins, HashSet<long> Seen, TimestampParser Parser, RawValueSink? Sink)
+    private sealed record FileState(TagLedger[] Ledgers, BinAccumulator[] Bins, TimestampSet Seen, TimestampParser Parser, RawValueSink? Sink)
     {
         public long Rows;
-
-        /// <summary>No timestamp in <see cref="Seen"/> is later than this (it may hold an earlier file's with the same columns).</summary>
-        public long LatestSeen => Math.Max(SeenBefore, Parser.LatestUtc);
-
-        public long SeenBefore { get; } = Seen.Count == 0 ? long.MinValue : Seen.Max();
     }
 
     /// <remarks>
@@ -120,7 +115,7 @@ public static partial class HistorianIngest
     /// service keeps every value) the parts are read in order on one thread.
     /// </remarks>
     private static FileReport ReadWide(string file, HistorianSource source, FileDialect dialect, PlantConfiguration config,
-        Dictionary<string, Channel> channels, Dictionary<string, HashSet<long>> signatures, Dictionary<string, List<string>> foundIn,
+        Dictionary<string, Channel> channels, Dictionary<string, TimestampSet> signatures, Dictionary<string, List<string>> foundIn,
         long interval, long? windowStart, long? windowEnd, RawValueSink? sink)
     {
         var header = dialect.Header;
@@ -137,7 +132,7 @@ public static partial class HistorianIngest
         }
         // Files with the same columns share one set of timestamps read, so overlapping exports are deduplicated.
         var signature = string.Join("\u0001", plans.Select(p => p.Tag).Order(StringComparer.Ordinal));
-        if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = [];
+        if (!signatures.TryGetValue(signature, out var seen)) signatures[signature] = seen = new TimestampSet();
 
         // The plain-part route reads UTF-8 bytes in place with single-byte delimiter and separator; the raw-value sink
         // (watch service) keeps the CSV reader's route.
@@ -182,7 +177,7 @@ public static partial class HistorianIngest
         using (part)
         {
             var read = work?.GetAwaiter().GetResult();
-            if (read is null || read.Parser.AmbiguousAsDaylight + read.Parser.AmbiguousAsStandard > 0 || (read.EarliestAccepted <= whole.LatestSeen && read.Accepted.Exists(whole.Seen.Contains)))
+            if (read is null || read.Parser.AmbiguousAsDaylight + read.Parser.AmbiguousAsStandard > 0 || (read.EarliestAccepted <= whole.Seen.Latest && read.Accepted.Exists(whole.Seen.Contains)))
             {
                 // Read in order against the file's own timestamps and clock: exactly what one pass would do.
                 if (read is not null) wide.Return(read);
