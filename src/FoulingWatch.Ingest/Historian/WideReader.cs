@@ -1,4 +1,7 @@
 using System.Buffers;
+using System.Numerics;
+using System.Runtime.InteropServices;
+using System.Runtime.Intrinsics;
 using System.Text;
 using CsvHelper;
 using FoulingWatch.Ingest.Alignment;
@@ -217,9 +220,11 @@ public static partial class HistorianIngest
                     else length += n;
                 }
                 if (length == 0) yield break;
-                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length));
+                var lines = 0;
+                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines);
+                if (end) lines = buffer.AsSpan(0, length).Count((byte)'\n');
                 // The first part holds the header and the unit rows whole; a record longer than the buffer grows it.
-                if (!end && (cut < 0 || (first && buffer.AsSpan(0, cut).Count((byte)'\n') <= dialect.MetadataRows)))
+                if (!end && (cut < 0 || (first && lines <= dialect.MetadataRows)))
                 {
                     var larger = ArrayPool<byte>.Shared.Rent(buffer.Length * 2);
                     buffer.AsSpan(0, length).CopyTo(larger);
@@ -230,7 +235,7 @@ public static partial class HistorianIngest
                 var next = ArrayPool<byte>.Shared.Rent(Math.Max(PartBytes, 2 * (length - cut)));
                 buffer.AsSpan(cut, length - cut).CopyTo(next);
                 var part = new FilePart(buffer, cut, lineBefore, first);
-                lineBefore += buffer.AsSpan(0, cut).Count((byte)'\n');
+                lineBefore += lines;
                 first = false;
                 length -= cut;
                 buffer = next;
@@ -244,20 +249,50 @@ public static partial class HistorianIngest
     }
 
     /// <summary>The length of the run of whole records at the start of <paramref name="data"/>: up to the last line break outside quotes, or -1.</summary>
+    internal static int RecordsEnd(ReadOnlySpan<byte> data) => RecordsEnd(data, out _);
+
+    /// <summary>As <see cref="RecordsEnd(ReadOnlySpan{byte})"/>, with the number of line breaks in that run.</summary>
     /// <remarks>Parts always start outside quotes, so a line break is outside them when an even number of quotes comes before it (an escaped quote is two).</remarks>
-    internal static int RecordsEnd(ReadOnlySpan<byte> data)
+    internal static int RecordsEnd(ReadOnlySpan<byte> data, out int lines)
     {
+        lines = 0;
         var at = data.LastIndexOf((byte)'\n');
         if (at < 0) return -1;
-        var quotes = data[..at].Count((byte)'"');
+        var (breaks, quotes) = CountBreaksAndQuotes(data[..at]);
+        lines = breaks + 1;
         while ((quotes & 1) == 1)
         {
             var previous = data[..at].LastIndexOf((byte)'\n');
             if (previous < 0) return -1;
             quotes -= data[previous..at].Count((byte)'"');
             at = previous;
+            lines--;
         }
         return at + 1;
+    }
+
+    /// <summary>Line breaks and quotes in <paramref name="data"/>, counted in one pass (the reading thread's only look at every byte).</summary>
+    internal static (int Breaks, int Quotes) CountBreaksAndQuotes(ReadOnlySpan<byte> data)
+    {
+        int breaks = 0, quotes = 0, i = 0;
+        if (Vector256.IsHardwareAccelerated && data.Length >= Vector256<byte>.Count)
+        {
+            ref var start = ref MemoryMarshal.GetReference(data);
+            var lf = Vector256.Create((byte)'\n');
+            var quote = Vector256.Create((byte)'"');
+            for (; i <= data.Length - Vector256<byte>.Count; i += Vector256<byte>.Count)
+            {
+                var v = Vector256.LoadUnsafe(ref start, (nuint)i);
+                breaks += BitOperations.PopCount(Vector256.Equals(v, lf).ExtractMostSignificantBits());
+                quotes += BitOperations.PopCount(Vector256.Equals(v, quote).ExtractMostSignificantBits());
+            }
+        }
+        for (; i < data.Length; i++)
+        {
+            if (data[i] == (byte)'\n') breaks++;
+            else if (data[i] == (byte)'"') quotes++;
+        }
+        return (breaks, quotes);
     }
 
     private static CsvReader OpenPart(FilePart part, FileDialect dialect)

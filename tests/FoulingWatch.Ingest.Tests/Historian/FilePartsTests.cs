@@ -158,6 +158,20 @@ public class FilePartsTests
             AssertSame(whole, Read(plant.ConfigPath, size));
     }
 
+    [Fact]
+    public void Line_breaks_and_quotes_are_counted_as_one_by_one()
+    {
+        // Reference: counting byte by byte; lengths around the vector width, random bytes rich in both.
+        var rng = new Random(3);
+        for (var length = 0; length < 300; length++)
+        {
+            var data = Enumerable.Range(0, length).Select(_ => "\n\"a,1"[rng.Next(5)]).Select(c => (byte)c).ToArray();
+            Assert.Equal((data.Count(b => b == '\n'), data.Count(b => b == '"')), HistorianIngest.CountBreaksAndQuotes(data));
+            var end = HistorianIngest.RecordsEnd(data, out var lines);
+            if (end >= 0) Assert.Equal(data.Take(end).Count(b => b == '\n'), lines);
+        }
+    }
+
     [Theory]
     [InlineData("a,b\n1,2\n", 8)]
     [InlineData("a,b\n1,2", 4)]
