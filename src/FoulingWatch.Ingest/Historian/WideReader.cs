@@ -1,5 +1,6 @@
 using System.Buffers;
 using System.Numerics;
+using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using System.Text;
@@ -369,6 +370,9 @@ public static partial class HistorianIngest
     /// field is found: the same fields the CSV reader gives (delimiter-separated, untrimmed, a missing field empty,
     /// empty lines skipped), without finding every field's ends first.
     /// </summary>
+    // Compiled optimized at once: a command-line run reads each file once, and the plain route carries almost all of it
+    // (with tiered compilation the first few parts would run unoptimized code).
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ReadPlainPart(FilePart part, WideFile wide, PartTarget target)
     {
         var data = part.Buffer.AsSpan(0, part.Length);
@@ -421,6 +425,7 @@ public static partial class HistorianIngest
     /// The hot loop over one plain record: walk to each planned column, parse its number up to the delimiter, convert,
     /// range-check, add to the interval. Fields the quick route declines are listed (plan, start, end) for the caller.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int AddPlainRecord(ReadOnlySpan<byte> record, ColumnPlan[] plans, byte delimiter, byte decimalByte, double[] sums, int[] counts, int cell,
         (int Plan, int Start, int End)[] declined)
     {
