@@ -13,24 +13,12 @@ internal sealed class BinAccumulator
     public long MaximumBin { get; private set; } = long.MinValue;
     public bool IsEmpty => MinimumBin == long.MaxValue;
 
-    public void Add(long bin, double value) => Add(bin, value, 1);
-
-    /// <summary>Adds a sum of <paramref name="count"/> values to one interval.</summary>
-    public void Add(long bin, double sum, int count)
+    public void Add(long bin, double value)
     {
-        var key = bin >> ChunkBits;
-        if (key != _lastChunkKey)
-        {
-            if (!_chunks.TryGetValue(key, out _lastChunk))
-            {
-                _lastChunk = (new double[1 << ChunkBits], new int[1 << ChunkBits]);
-                _chunks[key] = _lastChunk;
-            }
-            _lastChunkKey = key;
-        }
+        var chunk = Chunk(bin >> ChunkBits);
         var i = (int)(bin & Mask);
-        _lastChunk.Sum[i] += sum;
-        _lastChunk.Count[i] += count;
+        chunk.Sum[i] += value;
+        chunk.Count[i]++;
         if (bin < MinimumBin) MinimumBin = bin;
         if (bin > MaximumBin) MaximumBin = bin;
     }
@@ -43,10 +31,26 @@ internal sealed class BinAccumulator
     {
         var key = firstBin >> ChunkBits;
         if (key != (firstBin + sums.Length - 1) >> ChunkBits) throw new ArgumentException("the run crosses a chunk", nameof(firstBin));
+        var at = (int)(firstBin & Mask);
+        (double[] Sum, int[] Count)? chunk = null;
         int first = -1, last = -1;
         for (var k = 0; k < counts.Length; k++)
-            if (counts[k] > 0) { if (first < 0) first = k; last = k; }
+        {
+            if (counts[k] == 0) continue;
+            var (sum, count) = chunk ??= Chunk(key);
+            sum[at + k] += sums[k];
+            count[at + k] += counts[k];
+            if (first < 0) first = k;
+            last = k;
+        }
         if (first < 0) return;
+        if (firstBin + first < MinimumBin) MinimumBin = firstBin + first;
+        if (firstBin + last > MaximumBin) MaximumBin = firstBin + last;
+    }
+
+    /// <summary>The chunk holding the intervals of <paramref name="key"/>, made when first needed; the last one is kept at hand.</summary>
+    private (double[] Sum, int[] Count) Chunk(long key)
+    {
         if (key != _lastChunkKey)
         {
             if (!_chunks.TryGetValue(key, out _lastChunk))
@@ -56,17 +60,7 @@ internal sealed class BinAccumulator
             }
             _lastChunkKey = key;
         }
-        var at = (int)(firstBin & Mask);
-        var sum = _lastChunk.Sum.AsSpan(at, sums.Length);
-        var count = _lastChunk.Count.AsSpan(at, counts.Length);
-        for (var k = first; k <= last; k++)
-            if (counts[k] > 0)
-            {
-                sum[k] += sums[k];
-                count[k] += counts[k];
-            }
-        if (firstBin + first < MinimumBin) MinimumBin = firstBin + first;
-        if (firstBin + last > MaximumBin) MaximumBin = firstBin + last;
+        return _lastChunk;
     }
 
     /// <summary>Mean per interval over [firstBin, firstBin + count); NaN where the interval holds no value.</summary>
