@@ -1,4 +1,5 @@
 using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 
 namespace FoulingWatch.Ingest.Historian;
 
@@ -10,58 +11,82 @@ namespace FoulingWatch.Ingest.Historian;
 /// Clinger's fast path (W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990): when the
 /// decimal digits form an integer m ≤ 2^53 and the number of fraction digits k ≤ 22, both m and 10^k are
 /// exact doubles, so the single IEEE division m / 10^k is the correctly rounded value of the decimal, the
-/// same bits a correctly rounding parser gives. Anything else returns false and goes to the general parser.
+/// same bits a correctly rounding parser gives. Anything else is declined and goes to the general parser.
 /// </remarks>
 public static class PlainDecimal
 {
-    private static readonly double[] PowersOfTen =
+    // Constant data (no static constructor to check on each use). 10^0 = 1 makes the integer case the same division.
+    private static ReadOnlySpan<double> PowersOfTen =>
     [
         1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
-        1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+        1e17, 1e18, 1e19,
     ];
 
     private const ulong ExactLimit = 1UL << 53;
 
-    /// <summary>Parses all of <paramref name="s"/>, or returns false (the caller then tries the general parser).</summary>
-    /// <remarks>A word-at-a-time (SWAR) variant was measured slower than this loop on the benchmark machine, so the loop stays.</remarks>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static bool TryParse(ReadOnlySpan<byte> s, byte decimalSeparator, out double value) =>
-        ParsePrefix(s, decimalSeparator, out value) == s.Length;
+    /// <summary>A sign, 19 digits and a separator: no longer text is a plain decimal the quick route takes.</summary>
+    private const int LongestPlain = 21;
 
-    /// <summary>
-    /// Reads the plain decimal at the start of <paramref name="s"/>, up to the first byte that is neither a digit nor
-    /// the (first) decimal separator, and returns how many bytes it took; -1 when that prefix is not a plain decimal
-    /// the quick route takes. A field is a plain decimal exactly when its prefix is the whole field, so a record can be
-    /// read field by field without finding the field ends first.
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static int ParsePrefix(ReadOnlySpan<byte> s, byte decimalSeparator, out double value)
+    /// <summary>Parses all of <paramref name="s"/>, or returns false (the caller then tries the general parser).</summary>
+    public static unsafe bool TryParse(ReadOnlySpan<byte> s, byte decimalSeparator, out double value)
     {
         value = 0;
-        var i = 0;
-        var negative = false;
-        if (s.Length > 0 && (s[0] == (byte)'-' || s[0] == (byte)'+'))
-        {
-            negative = s[0] == (byte)'-';
-            i = 1;
-        }
-        var digitsStart = i;
+        if (s.Length > LongestPlain) return false;
+        // The text copied with a terminator after it (a byte that is neither a digit nor a separator).
+        var copy = stackalloc byte[LongestPlain + 1];
+        s.CopyTo(new Span<byte>(copy, LongestPlain));
+        copy[s.Length] = 0;
+        var after = ParseTerminated(copy, decimalSeparator, out value);
+        return after == copy + s.Length;
+    }
+
+    /// <summary>
+    /// Reads the plain decimal at <paramref name="p"/>, up to the first byte that is neither a digit nor the (first)
+    /// decimal separator, and returns where it stopped; null when that prefix is not a plain decimal the quick route
+    /// takes. A field is a plain decimal exactly when it stops at the field's end, so a record can be read field by
+    /// field without finding the field ends first.
+    /// </summary>
+    /// <remarks>
+    /// The text must be followed, within readable memory, by a byte that is neither a digit nor the separator (a
+    /// delimiter or a line end): the loops stop on it, so they need no length checks. A word-at-a-time (SWAR) variant
+    /// was measured slower than these byte loops on the benchmark machine, so the loops stay.
+    /// </remarks>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static unsafe byte* ParseTerminated(byte* p, byte decimalSeparator, out double value)
+    {
+        var negative = *p == (byte)'-';
+        if (negative || *p == (byte)'+') p++;
+        var digitsStart = p;
         ulong mantissa = 0;
-        var fractionStart = -1;
-        for (; i < s.Length; i++)
+        uint d;
+        // Past 19 digits the mantissa wraps; such text is declined below by its digit count.
+        while ((d = (uint)(*p - (byte)'0')) <= 9)
         {
-            var d = (uint)(s[i] - (byte)'0');
-            // Past 19 digits the mantissa wraps; such text is declined below by its digit count.
-            if (d <= 9) mantissa = mantissa * 10 + d;
-            else if (s[i] == decimalSeparator && fractionStart < 0) fractionStart = i + 1;
-            else break;
+            mantissa = mantissa * 10 + d;
+            p++;
         }
-        var fractionDigits = fractionStart < 0 ? 0 : i - fractionStart;
-        var digits = i - digitsStart - (fractionStart < 0 ? 0 : 1);
-        // 19 digits always fit in 64 bits; more, or a mantissa beyond 2^53, are left to the general parser.
-        if (digits == 0 || digits > 19 || mantissa > ExactLimit || fractionDigits >= PowersOfTen.Length) return -1;
-        var magnitude = fractionDigits == 0 ? (double)mantissa : mantissa / PowersOfTen[fractionDigits];
+        long fractionDigits = 0, separators = 0;
+        if (*p == decimalSeparator)
+        {
+            var fractionStart = ++p;
+            while ((d = (uint)(*p - (byte)'0')) <= 9)
+            {
+                mantissa = mantissa * 10 + d;
+                p++;
+            }
+            fractionDigits = p - fractionStart;
+            separators = 1;
+        }
+        var digits = p - digitsStart - separators;
+        // 1 to 19 digits always fit in 64 bits (and then fractionDigits ≤ 19); more, or a mantissa beyond 2^53, are
+        // left to the general parser.
+        if ((ulong)(digits - 1) > 18 || mantissa > ExactLimit)
+        {
+            value = 0;
+            return null;
+        }
+        var magnitude = mantissa / Unsafe.Add(ref MemoryMarshal.GetReference(PowersOfTen), (nint)fractionDigits);
         value = negative ? -magnitude : magnitude;
-        return i;
+        return p;
     }
 }

@@ -373,9 +373,8 @@ public static partial class HistorianIngest
     // Compiled optimized at once: a command-line run reads each file once, and the plain route carries almost all of it
     // (with tiered compilation the first few parts would run unoptimized code).
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void ReadPlainPart(FilePart part, WideFile wide, PartTarget target)
+    private static unsafe void ReadPlainPart(FilePart part, WideFile wide, PartTarget target)
     {
-        var data = part.Buffer.AsSpan(0, part.Length);
         var plans = wide.Plans;
         var ledgers = target.Ledgers;
         var delimiter = (byte)wide.Dialect.Delimiter;
@@ -383,29 +382,56 @@ public static partial class HistorianIngest
         var declined = new (int Plan, int Start, int End)[plans.Length];
         var line = part.LineBefore;
         long rows = 0;
-        while (!data.IsEmpty)
+        var length = part.Length;
+        // Every record but perhaps the file's last ends in a line break; a last one without it is read from a copy
+        // that has one, so that the number loops always stop on a byte that is not a digit.
+        var whole = length > 0 && part.Buffer[length - 1] != (byte)'\n' ? part.Buffer.AsSpan(0, length).LastIndexOf((byte)'\n') + 1 : length;
+        fixed (byte* buffer = part.Buffer)
         {
-            var lineEnd = data.IndexOf((byte)'\n');
-            var record = lineEnd < 0 ? data : data[..lineEnd];
-            data = lineEnd < 0 ? default : data[(lineEnd + 1)..];
+            var data = new ReadOnlySpan<byte>(buffer, whole);
+            while (!data.IsEmpty)
+            {
+                var lineEnd = data.IndexOf((byte)'\n');
+                var record = data[..lineEnd];
+                data = data[(lineEnd + 1)..];
+                line++;
+                ReadPlainRecord(record, ref line, ref rows);
+            }
+        }
+        if (whole < length)
+        {
+            var tail = new byte[length - whole + 1];
+            part.Buffer.AsSpan(whole, length - whole).CopyTo(tail);
+            tail[^1] = (byte)'\n';
             line++;
+            ReadPlainRecord(tail.AsSpan(0, tail.Length - 1), ref line, ref rows);
+        }
+        CountUsed(target, rows);
+
+        void ReadPlainRecord(ReadOnlySpan<byte> record, ref long line, ref long rows)
+        {
             if (!record.IsEmpty && record[^1] == (byte)'\r') record = record[..^1];
-            if (record.IsEmpty) continue;
+            if (record.IsEmpty) return;
             rows++;
-            if (!AcceptRow(wide, target, Field(record, wide.TimestampColumn, delimiter), line, out var utc)) continue;
+            if (!AcceptRow(wide, target, Field(record, wide.TimestampColumn, delimiter), line, out var utc)) return;
             var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
-            var declinedCount = AddPlainRecord(record, plans, delimiter, decimalByte, sums, counts, cell, declined);
+            // The hot loop writes a record's cells without bounds checks: the last column's cell must be inside.
+            if ((uint)(cell + (plans.Length - 1) * PartBins.Stride) >= (uint)Math.Min(sums.Length, counts.Length))
+                throw new InvalidOperationException("Interval cells outside their block.");
+            int declinedCount;
+            fixed (byte* start = record)
+                declinedCount = AddPlainRecord(start, start + record.Length, plans, delimiter, decimalByte,
+                    ref sums[cell], ref counts[cell], declined);
             for (var f = 0; f < declinedCount; f++)
             {
-                var (j, start, end) = declined[f];
-                if (SlowValue(plans[j], ledgers[j], record[start..end], plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
+                var (j, from, to) = declined[f];
+                if (SlowValue(plans[j], ledgers[j], record[from..to], plans[j].Index, decimalByte, wide.Markers, wide.Name, line, out var slow))
                 {
                     sums[cell + j * PartBins.Stride] += slow;
                     counts[cell + j * PartBins.Stride]++;
                 }
             }
         }
-        CountUsed(target, rows);
     }
 
     /// <summary>Field <paramref name="index"/> of a plain record; empty when the record has fewer fields (as the CSV reader gives it).</summary>
@@ -422,45 +448,47 @@ public static partial class HistorianIngest
     }
 
     /// <summary>
-    /// The hot loop over one plain record: walk to each planned column, parse its number up to the delimiter, convert,
-    /// range-check, add to the interval. Fields the quick route declines are listed (plan, start, end) for the caller.
+    /// The hot loop over one plain record [<paramref name="record"/>, <paramref name="end"/>), where the byte at
+    /// <paramref name="end"/> is a line end: walk to each planned column, parse its number up to the delimiter,
+    /// convert, range-check, add to the interval (column j's cells <see cref="PartBins.Stride"/> · j after
+    /// <paramref name="sum"/> and <paramref name="count"/>). Fields the quick route declines are listed
+    /// (plan, start, end) for the caller.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static int AddPlainRecord(ReadOnlySpan<byte> record, ColumnPlan[] plans, byte delimiter, byte decimalByte, double[] sums, int[] counts, int cell,
-        (int Plan, int Start, int End)[] declined)
+    private static unsafe int AddPlainRecord(byte* record, byte* end, ColumnPlan[] plans, byte delimiter, byte decimalByte,
+        ref double sum, ref int count, (int Plan, int Start, int End)[] declined)
     {
         var declinedCount = 0;
-        var at = 0; // where field `column` starts; past the end when the record has no such field
+        var at = record; // where field `column` starts; past the end when the record has no such field
         var column = 0;
         for (var j = 0; j < plans.Length; j++)
         {
             var plan = plans[j];
-            while (column < plan.Index && at <= record.Length)
+            while (column < plan.Index && at <= end)
             {
-                var next = record[at..].IndexOf(delimiter);
-                at = next < 0 ? record.Length + 1 : at + next + 1;
+                var next = new ReadOnlySpan<byte>(at, (int)(end - at)).IndexOf(delimiter);
+                at = next < 0 ? end + 1 : at + next + 1;
                 column++;
             }
-            if (at > record.Length)
+            if (at > end)
             {
                 declined[declinedCount++] = (j, 0, 0);
                 continue;
             }
-            var field = record[at..];
-            var used = PlainDecimal.ParsePrefix(field, decimalByte, out var reading);
-            if (used >= 0 && (used == field.Length || field[used] == delimiter)
+            var after = PlainDecimal.ParseTerminated(at, decimalByte, out var reading);
+            if (after != null && (*after == delimiter || after == end)
                 && (reading = reading * plan.Scale + plan.Offset) >= plan.Minimum && reading <= plan.Maximum)
             {
-                sums[cell + j * PartBins.Stride] += reading;
-                counts[cell + j * PartBins.Stride]++;
+                Unsafe.Add(ref sum, j * PartBins.Stride) += reading;
+                Unsafe.Add(ref count, j * PartBins.Stride)++;
             }
             else
             {
-                used = field.IndexOf(delimiter);
-                if (used < 0) used = field.Length;
-                declined[declinedCount++] = (j, at, at + used);
+                var length = new ReadOnlySpan<byte>(at, (int)(end - at)).IndexOf(delimiter);
+                after = length < 0 ? end : at + length;
+                declined[declinedCount++] = (j, (int)(at - record), (int)(after - record));
             }
-            at += used + 1;
+            at = after + 1;
             column++;
         }
         return declinedCount;

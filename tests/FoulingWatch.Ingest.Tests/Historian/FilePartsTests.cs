@@ -24,9 +24,9 @@ public class FilePartsTests
     /// An export with what plain text can hold besides plain numbers: blank lines, a line of blanks, short and long
     /// records, a trailing delimiter, padded values, exponents, long digit strings, signs, markers, empty fields,
     /// out-of-range readings, unreadable timestamps, duplicates, the timestamp in the second column, and one quoted
-    /// record (its part goes to the CSV reader).
+    /// record (its part goes to the CSV reader); the last record with or without a line break after it.
     /// </summary>
-    private static string Awkward(string newline, char delimiter, char separator)
+    private static string Awkward(string newline, char delimiter, char separator, bool finalBreak)
     {
         var rng = new Random(11);
         string N(double v, string format) => v.ToString(format, System.Globalization.CultureInfo.InvariantCulture).Replace('.', separator);
@@ -52,19 +52,21 @@ public class FilePartsTests
             if (m % 53 == 9) sb.Append(newline); // a blank line
             if (m % 89 == 10) sb.Append("   ").Append(newline); // a line of blanks is a record of one field
         }
-        return sb.ToString();
+        return finalBreak ? sb.ToString() : sb.ToString().TrimEnd('\r', '\n');
     }
 
     [Theory]
-    [InlineData("\n", ',', '.')]
-    [InlineData("\r\n", ',', '.')]
-    [InlineData("\r\n", ';', ',')]
-    [InlineData("\n", '\t', '.')]
-    public void Plain_parts_read_in_place_give_what_the_csv_reader_gives(string newline, char delimiter, char separator)
+    [InlineData("\n", ',', '.', true)]
+    [InlineData("\n", ',', '.', false)]
+    [InlineData("\r\n", ',', '.', true)]
+    [InlineData("\r\n", ';', ',', true)]
+    [InlineData("\r\n", ';', ',', false)]
+    [InlineData("\n", '\t', '.', true)]
+    public void Plain_parts_read_in_place_give_what_the_csv_reader_gives(string newline, char delimiter, char separator, bool finalBreak)
     {
         // Reference: the CSV reader (RFC 4180 rules) on the same parts; the plain route must be taken for most of them.
         var source = $$"""{ "files": ["awkward.csv"], "delimiter": "{{(delimiter == '\t' ? "\\t" : delimiter.ToString())}}", "decimal": "{{separator}}", "timestamp": { "column": "Timestamp" } }""";
-        using var plant = new TestPlant().WithFile("awkward.csv", Awkward(newline, delimiter, separator))
+        using var plant = new TestPlant().WithFile("awkward.csv", Awkward(newline, delimiter, separator, finalBreak))
             .WithConfig(source, data: "\"interval\": \"10 min\"");
         foreach (var size in new[] { 64, 300, 2000 })
         {

@@ -22,9 +22,19 @@ public class PlainDecimalTests
             Assert.True(BitConverter.DoubleToInt64Bits(expected) == BitConverter.DoubleToInt64Bits(value), $"'{text}': {value:R} vs {expected:R}");
         }
         // Read as the first field of a record: the prefix ends exactly at the delimiter when, and only when, the field is taken.
-        var used = PlainDecimal.ParsePrefix(Encoding.ASCII.GetBytes(text + ";7;x"), separator, out var prefixValue);
+        var used = Prefix(Encoding.ASCII.GetBytes(text + ";7;x\n"), separator, out var prefixValue);
         Assert.True(accepted == (used == text.Length), $"'{text};7;x': prefix of {used} bytes, field taken: {accepted}");
         if (accepted) Assert.Equal(BitConverter.DoubleToInt64Bits(value), BitConverter.DoubleToInt64Bits(prefixValue));
+    }
+
+    /// <summary>How many bytes the plain decimal at the start of <paramref name="line"/> takes; -1 when declined.</summary>
+    private static unsafe int Prefix(byte[] line, byte separator, out double value)
+    {
+        fixed (byte* start = line)
+        {
+            var after = PlainDecimal.ParseTerminated(start, separator, out value);
+            return after == null ? -1 : (int)(after - start);
+        }
     }
 
     [Theory]
@@ -36,6 +46,8 @@ public class PlainDecimalTests
     [InlineData(".5", 0.5)]
     [InlineData("5.", 5.0)]
     [InlineData("0.1", 0.1)]
+    [InlineData("0.000000000000000001", 1e-18)] // 19 digits, 21 characters: the longest text the quick route takes
+    [InlineData("-1234567890.123456789", -1234567890.123456789)] // 19 digits beyond 2^53: declined
     [InlineData("9007199254740993", 9007199254740992.0)] // 2^53 + 1: beyond the exact mantissas, declined (the general parser rounds it)
     public void Reads_plain_decimals_to_the_correctly_rounded_double(string text, double expected)
     {
