@@ -66,16 +66,24 @@ internal sealed class BinAccumulator
     /// <summary>Mean per interval over [firstBin, firstBin + count); NaN where the interval holds no value.</summary>
     public double[] Means(long firstBin, int count)
     {
-        var result = new double[count];
-        for (var k = 0; k < count; k++)
+        // Every element is written below, so the array need not be zeroed first.
+        var result = GC.AllocateUninitializedArray<double>(count);
+        // Chunk by chunk: one lookup per chunk, not per interval.
+        for (var k = 0; k < count;)
         {
             var bin = firstBin + k;
+            var i = (int)(bin & Mask);
+            var run = (int)Math.Min(count - k, (1 << ChunkBits) - i);
+            var target = result.AsSpan(k, run);
             if (_chunks.TryGetValue(bin >> ChunkBits, out var chunk))
             {
-                var i = (int)(bin & Mask);
-                result[k] = chunk.Count[i] > 0 ? chunk.Sum[i] / chunk.Count[i] : double.NaN;
+                var sums = chunk.Sum.AsSpan(i, run);
+                var counts = chunk.Count.AsSpan(i, run);
+                for (var m = 0; m < target.Length; m++)
+                    target[m] = counts[m] > 0 ? sums[m] / counts[m] : double.NaN;
             }
-            else result[k] = double.NaN;
+            else target.Fill(double.NaN);
+            k += run;
         }
         return result;
     }

@@ -58,9 +58,9 @@ public static class PlainDecimal
         if (negative || *p == (byte)'+') p++;
         var digitsStart = p;
         ulong mantissa = 0;
-        uint d;
+        ulong d; // 64 bits wide, so the digit needs no widening before it is added
         // Past 19 digits the mantissa wraps; such text is declined below by its digit count.
-        while ((d = (uint)(*p - (byte)'0')) <= 9)
+        while ((d = (ulong)*p - '0') <= 9)
         {
             mantissa = mantissa * 10 + d;
             p++;
@@ -69,7 +69,7 @@ public static class PlainDecimal
         if (*p == decimalSeparator)
         {
             var fractionStart = ++p;
-            while ((d = (uint)(*p - (byte)'0')) <= 9)
+            while ((d = (ulong)*p - '0') <= 9)
             {
                 mantissa = mantissa * 10 + d;
                 p++;

@@ -408,6 +408,7 @@ public static partial class HistorianIngest
         }
         CountUsed(target, rows);
 
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         void ReadPlainRecord(ReadOnlySpan<byte> record, ref long line, ref long rows)
         {
             if (!record.IsEmpty && record[^1] == (byte)'\r') record = record[..^1];
