@@ -45,13 +45,16 @@ public static class FileDialectDetector
                 break;
         }
 
-        // Split the sample into lines, remembering byte offsets, and drop a last partial line.
+        // Split the sample into lines, remembering byte offsets, and drop a last partial line. A line ends at LF, CRLF
+        // or a lone CR, as the CSV reader reads them.
         var lines = new List<(string Text, long Offset)>();
         var start = bom;
         for (var i = bom; i < sample.Length; i++)
         {
-            if (sample[i] != (byte)'\n') continue;
-            var end = i > start && sample[i - 1] == (byte)'\r' ? i - 1 : i;
+            if (sample[i] != (byte)'\n' && sample[i] != (byte)'\r') continue;
+            if (sample[i] == (byte)'\r' && i + 1 < sample.Length && sample[i + 1] == (byte)'\n') continue; // the LF ends it
+            if (sample[i] == (byte)'\r' && i + 1 == sample.Length && sample.Length == SampleBytes) break; // perhaps a CRLF cut by the sample
+            var end = sample[i] == (byte)'\n' && i > start && sample[i - 1] == (byte)'\r' ? i - 1 : i;
             lines.Add((encoding.GetString(sample, start, end - start), start));
             start = i + 1;
         }

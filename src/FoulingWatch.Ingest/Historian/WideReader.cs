@@ -26,6 +26,9 @@ public static partial class HistorianIngest
     /// <summary>Parts merged on this thread that were read by the plain-part route (tests and the benchmark check it is taken).</summary>
     [ThreadStatic] internal static int PlainPartsRead;
 
+    /// <summary>Parts read (for tests: an export is cut into parts whatever its line ends).</summary>
+    [ThreadStatic] internal static int PartsRead;
+
     /// <summary>A column's conversion resolved once: SI = reading·Scale + Offset (density folded in), and its physical range.</summary>
     private sealed class ColumnPlan(int index, Channel channel)
     {
@@ -197,6 +200,7 @@ public static partial class HistorianIngest
             read.Bins.MergeInto(whole.Bins);
             whole.Rows += read.Rows;
             if (read.Plain) PlainPartsRead++;
+            PartsRead++;
             if (read.Worker) wide.Return(read);
         }
     }
@@ -223,7 +227,7 @@ public static partial class HistorianIngest
                 if (length == 0) yield break;
                 var lines = 0;
                 var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines);
-                if (end) lines = buffer.AsSpan(0, length).Count((byte)'\n');
+                if (end) lines = CountBreaksAndQuotes(buffer.AsSpan(0, length)).Breaks;
                 // The first part holds the header and the unit rows whole; a record longer than the buffer grows it.
                 if (!end && (cut < 0 || (first && lines <= dialect.MetadataRows)))
                 {
@@ -253,17 +257,22 @@ public static partial class HistorianIngest
     internal static int RecordsEnd(ReadOnlySpan<byte> data) => RecordsEnd(data, out _);
 
     /// <summary>As <see cref="RecordsEnd(ReadOnlySpan{byte})"/>, with the number of line breaks in that run.</summary>
-    /// <remarks>Parts always start outside quotes, so a line break is outside them when an even number of quotes comes before it (an escaped quote is two).</remarks>
+    /// <remarks>
+    /// A line break is an LF, or a CR not followed by LF (as the CSV reader reads them); a CR as the last byte of
+    /// <paramref name="data"/> may be the first half of a CRLF still to be read, so the run ends before it. Parts always
+    /// start outside quotes, so a line break is outside them when an even number of quotes comes before it (an escaped
+    /// quote is two).
+    /// </remarks>
     internal static int RecordsEnd(ReadOnlySpan<byte> data, out int lines)
     {
         lines = 0;
-        var at = data.LastIndexOf((byte)'\n');
+        var at = LastBreak(data, data.Length);
         if (at < 0) return -1;
-        var (breaks, quotes) = CountBreaksAndQuotes(data[..at]);
-        lines = breaks + 1;
+        var (breaks, quotes) = CountBreaksAndQuotes(data[..(at + 1)]);
+        lines = breaks;
         while ((quotes & 1) == 1)
         {
-            var previous = data[..at].LastIndexOf((byte)'\n');
+            var previous = LastBreak(data, at);
             if (previous < 0) return -1;
             quotes -= data[previous..at].Count((byte)'"');
             at = previous;
@@ -272,26 +281,50 @@ public static partial class HistorianIngest
         return at + 1;
     }
 
-    /// <summary>Line breaks and quotes in <paramref name="data"/>, counted in one pass (the reading thread's only look at every byte).</summary>
+    /// <summary>The last line break in <paramref name="data"/> before <paramref name="limit"/> (where it ends: the LF of a CRLF), or -1.</summary>
+    private static int LastBreak(ReadOnlySpan<byte> data, int limit)
+    {
+        var k = limit;
+        while (true)
+        {
+            k = data[..k].LastIndexOfAny((byte)'\n', (byte)'\r');
+            // A CR followed by LF is the break that LF ends; a CR at the very end is not known to be a break yet.
+            if (k < 0 || data[k] == (byte)'\n' || (k + 1 < data.Length && data[k + 1] != (byte)'\n')) return k;
+        }
+    }
+
+    /// <summary>
+    /// Line breaks (LF, and CR not followed by LF; a CR at the very end counts) and quotes in <paramref name="data"/>,
+    /// counted in one pass (the reading thread's only look at every byte).
+    /// </summary>
     internal static (int Breaks, int Quotes) CountBreaksAndQuotes(ReadOnlySpan<byte> data)
     {
         int breaks = 0, quotes = 0, i = 0;
-        if (Vector256.IsHardwareAccelerated && data.Length >= Vector256<byte>.Count)
+        if (Vector256.IsHardwareAccelerated && data.Length > Vector256<byte>.Count)
         {
             ref var start = ref MemoryMarshal.GetReference(data);
             var lf = Vector256.Create((byte)'\n');
+            var cr = Vector256.Create((byte)'\r');
             var quote = Vector256.Create((byte)'"');
-            for (; i <= data.Length - Vector256<byte>.Count; i += Vector256<byte>.Count)
+            // Each block's next byte is read with it (the block one byte on), so the loop stops a byte short of the end.
+            for (; i < data.Length - Vector256<byte>.Count; i += Vector256<byte>.Count)
             {
                 var v = Vector256.LoadUnsafe(ref start, (nuint)i);
                 breaks += BitOperations.PopCount(Vector256.Equals(v, lf).ExtractMostSignificantBits());
                 quotes += BitOperations.PopCount(Vector256.Equals(v, quote).ExtractMostSignificantBits());
+                var crs = Vector256.Equals(v, cr).ExtractMostSignificantBits();
+                if (crs != 0)
+                {
+                    var lfNext = Vector256.Equals(Vector256.LoadUnsafe(ref start, (nuint)(i + 1)), lf).ExtractMostSignificantBits();
+                    breaks += BitOperations.PopCount(crs & ~lfNext);
+                }
             }
         }
         for (; i < data.Length; i++)
         {
             if (data[i] == (byte)'\n') breaks++;
             else if (data[i] == (byte)'"') quotes++;
+            else if (data[i] == (byte)'\r' && (i + 1 == data.Length || data[i + 1] != (byte)'\n')) breaks++;
         }
         return (breaks, quotes);
     }

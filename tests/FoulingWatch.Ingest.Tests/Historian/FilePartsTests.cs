@@ -163,19 +163,59 @@ public class FilePartsTests
     [Fact]
     public void Line_breaks_and_quotes_are_counted_as_one_by_one()
     {
-        // Reference: counting byte by byte; lengths around the vector width, random bytes rich in both.
+        // Reference: counting byte by byte (a break is LF, or CR not followed by LF); lengths around the vector width,
+        // random bytes rich in LF, CR, CRLF and quotes.
         var rng = new Random(3);
+        static int Breaks(byte[] d, int n) => Enumerable.Range(0, n).Count(i => d[i] == '\n' || (d[i] == '\r' && (i + 1 == n || d[i + 1] != '\n')));
         for (var length = 0; length < 300; length++)
         {
-            var data = Enumerable.Range(0, length).Select(_ => "\n\"a,1"[rng.Next(5)]).Select(c => (byte)c).ToArray();
-            Assert.Equal((data.Count(b => b == '\n'), data.Count(b => b == '"')), HistorianIngest.CountBreaksAndQuotes(data));
+            var data = Enumerable.Range(0, length).Select(_ => "\n\"a,1\r\r"[rng.Next(7)]).Select(c => (byte)c).ToArray();
+            Assert.Equal((Breaks(data, data.Length), data.Count(b => b == '"')), HistorianIngest.CountBreaksAndQuotes(data));
             var end = HistorianIngest.RecordsEnd(data, out var lines);
-            if (end >= 0) Assert.Equal(data.Take(end).Count(b => b == '\n'), lines);
+            if (end < 0) continue;
+            Assert.Equal(Breaks(data, end), lines);
+            Assert.True(data[end - 1] == '\n' || (data[end - 1] == '\r' && end < data.Length && data[end] != '\n'), $"length {length}: the run ends at {end}, not after a line break");
+            Assert.Equal(0, data.Take(end).Count(b => b == '"') % 2);
+        }
+    }
+
+    [Theory]
+    [InlineData("\r")]     // classic Mac line ends only
+    [InlineData("mixed")]  // mostly LF, some records ended by a lone CR, some by CRLF
+    public void Lone_carriage_returns_end_records_in_parts_as_in_one_pass(string ends)
+    {
+        // Reference: the CSV reader over the whole file in one part (a lone CR ends a record; line numbers count it).
+        var rng = new Random(17);
+        var sb = new StringBuilder("Timestamp,FI-101,TI-101,TI-102,FI-201,TI-201,TI-202");
+        var start = new DateTime(2026, 5, 4, 0, 0, 0, DateTimeKind.Utc);
+        for (var m = 0; m < 400; m++)
+        {
+            sb.Append(ends == "\r" ? "\r" : (m % 7) switch { 2 => "\r", 5 => "\r\n", _ => "\n" });
+            var flow = m > 300 && m % 11 == 4 ? "Bad" : (100 + rng.NextDouble()).ToString("0.00", System.Globalization.CultureInfo.InvariantCulture);
+            sb.Append(System.Globalization.CultureInfo.InvariantCulture,
+                $"{start.AddMinutes(m):yyyy-MM-ddTHH:mm:ssZ},{flow},{250 + rng.NextDouble():0.00},{180 + rng.NextDouble():0.00},{90 + rng.NextDouble():0.00},{40 + rng.NextDouble():0.00},{95 + rng.NextDouble():0.00}");
+        }
+        sb.Append('\r');
+        using var plant = new TestPlant().WithFile("cr.csv", sb.ToString()).WithConfig("{ \"files\": [\"cr.csv\"] }", data: "\"interval\": \"10 min\"");
+        var whole = Read(plant.ConfigPath, null);
+        var flowLedger = whole.TagLedgers["FI-101"];
+        // The markers are far into the file, so their examples' line numbers depend on every part's count of lines.
+        Assert.Equal((400, 9), (flowLedger.Read, flowLedger.Rejected[(int)RejectReason.TextMarker]));
+        Assert.Contains(flowLedger.Examples, e => e.Contains("line 303", StringComparison.Ordinal));
+        foreach (var size in new[] { 64, 300, 2000 })
+        {
+            HistorianIngest.PartsRead = 0;
+            AssertSame(whole, Read(plant.ConfigPath, size));
+            // Cut into parts like any other export: memory does not grow with the file.
+            Assert.True(HistorianIngest.PartsRead >= sb.Length / (2 * size), $"parts of {size} bytes: {HistorianIngest.PartsRead} parts");
         }
     }
 
     [Theory]
     [InlineData("a,b\n1,2\n", 8)]
+    [InlineData("a,b\r1,2\r3", 8)]
+    [InlineData("a,b\r1,2\r", 4)]       // a CR at the end may be the first half of a CRLF still to be read
+    [InlineData("a,b\r\n1,2\r\n", 10)]
     [InlineData("a,b\n1,2", 4)]
     [InlineData("a,\"x\ny\"\n1,2\n", 12)]
     [InlineData("a,\"x\ny\"\n1,\"2\n", 8)]
