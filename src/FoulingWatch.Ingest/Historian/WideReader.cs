@@ -44,7 +44,7 @@ public static partial class HistorianIngest
     }
 
     /// <summary>A run of whole records of one export, with the line its first record starts on.</summary>
-    private sealed class FilePart(byte[] buffer, int length, long lineBefore, bool first) : IDisposable
+    private sealed class FilePart(byte[] buffer, int length, long lineBefore, bool first, bool plain) : IDisposable
     {
         public readonly byte[] Buffer = buffer;
         public readonly int Length = length;
@@ -52,6 +52,11 @@ public static partial class HistorianIngest
         public readonly long LineBefore = lineBefore;
         /// <summary>The part that holds the header and the unit/description rows.</summary>
         public readonly bool First = first;
+        /// <summary>
+        /// Plain delimited text, where CSV's quoting rules have nothing to do: no quote anywhere, and every carriage
+        /// return part of a CRLF line end (a lone CR is a line break to the CSV reader). Found while the part is cut.
+        /// </summary>
+        public readonly bool Plain = plain;
 
         public void Dispose() => ArrayPool<byte>.Shared.Return(Buffer);
     }
@@ -226,8 +231,13 @@ public static partial class HistorianIngest
                 }
                 if (length == 0) yield break;
                 var lines = 0;
-                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines);
-                if (end) lines = CountBreaksAndQuotes(buffer.AsSpan(0, length)).Breaks;
+                var plain = false;
+                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines, out plain);
+                if (end)
+                {
+                    var (breaks, quotes, loneReturns) = CountBreaksAndQuotes(buffer.AsSpan(0, length));
+                    (lines, plain) = (breaks, quotes == 0 && loneReturns == 0);
+                }
                 // The first part holds the header and the unit rows whole; a record longer than the buffer grows it.
                 if (!end && (cut < 0 || (first && lines <= dialect.MetadataRows)))
                 {
@@ -239,7 +249,7 @@ public static partial class HistorianIngest
                 }
                 var next = ArrayPool<byte>.Shared.Rent(Math.Max(PartBytes, 2 * (length - cut)));
                 buffer.AsSpan(cut, length - cut).CopyTo(next);
-                var part = new FilePart(buffer, cut, lineBefore, first);
+                var part = new FilePart(buffer, cut, lineBefore, first, plain);
                 lineBefore += lines;
                 first = false;
                 length -= cut;
@@ -254,22 +264,27 @@ public static partial class HistorianIngest
     }
 
     /// <summary>The length of the run of whole records at the start of <paramref name="data"/>: up to the last line break outside quotes, or -1.</summary>
-    internal static int RecordsEnd(ReadOnlySpan<byte> data) => RecordsEnd(data, out _);
+    internal static int RecordsEnd(ReadOnlySpan<byte> data) => RecordsEnd(data, out _, out _);
 
-    /// <summary>As <see cref="RecordsEnd(ReadOnlySpan{byte})"/>, with the number of line breaks in that run.</summary>
+    /// <summary>
+    /// As <see cref="RecordsEnd(ReadOnlySpan{byte})"/>, with the number of line breaks in that run and whether it is
+    /// plain delimited text (<see cref="FilePart.Plain"/>; false when unsure, which only sends the run to the CSV reader).
+    /// </summary>
     /// <remarks>
     /// A line break is an LF, or a CR not followed by LF (as the CSV reader reads them); a CR as the last byte of
     /// <paramref name="data"/> may be the first half of a CRLF still to be read, so the run ends before it. Parts always
     /// start outside quotes, so a line break is outside them when an even number of quotes comes before it (an escaped
     /// quote is two).
     /// </remarks>
-    internal static int RecordsEnd(ReadOnlySpan<byte> data, out int lines)
+    internal static int RecordsEnd(ReadOnlySpan<byte> data, out int lines, out bool plain)
     {
         lines = 0;
+        plain = false;
         var at = LastBreak(data, data.Length);
         if (at < 0) return -1;
-        var (breaks, quotes) = CountBreaksAndQuotes(data[..(at + 1)]);
+        var (breaks, quotes, loneReturns) = CountBreaksAndQuotes(data[..(at + 1)]);
         lines = breaks;
+        plain = quotes == 0 && loneReturns == 0;
         while ((quotes & 1) == 1)
         {
             var previous = LastBreak(data, at);
@@ -297,9 +312,9 @@ public static partial class HistorianIngest
     /// Line breaks (LF, and CR not followed by LF; a CR at the very end counts) and quotes in <paramref name="data"/>,
     /// counted in one pass (the reading thread's only look at every byte).
     /// </summary>
-    internal static (int Breaks, int Quotes) CountBreaksAndQuotes(ReadOnlySpan<byte> data)
+    internal static (int Breaks, int Quotes, int LoneReturns) CountBreaksAndQuotes(ReadOnlySpan<byte> data)
     {
-        int breaks = 0, quotes = 0, i = 0;
+        int breaks = 0, quotes = 0, loneReturns = 0, i = 0;
         if (Vector256.IsHardwareAccelerated && data.Length > Vector256<byte>.Count)
         {
             ref var start = ref MemoryMarshal.GetReference(data);
@@ -316,7 +331,7 @@ public static partial class HistorianIngest
                 if (crs != 0)
                 {
                     var lfNext = Vector256.Equals(Vector256.LoadUnsafe(ref start, (nuint)(i + 1)), lf).ExtractMostSignificantBits();
-                    breaks += BitOperations.PopCount(crs & ~lfNext);
+                    loneReturns += BitOperations.PopCount(crs & ~lfNext);
                 }
             }
         }
@@ -324,9 +339,9 @@ public static partial class HistorianIngest
         {
             if (data[i] == (byte)'\n') breaks++;
             else if (data[i] == (byte)'"') quotes++;
-            else if (data[i] == (byte)'\r' && (i + 1 == data.Length || data[i + 1] != (byte)'\n')) breaks++;
+            else if (data[i] == (byte)'\r' && (i + 1 == data.Length || data[i + 1] != (byte)'\n')) loneReturns++;
         }
-        return (breaks, quotes);
+        return (breaks + loneReturns, quotes, loneReturns);
     }
 
     private static CsvReader OpenPart(FilePart part, FileDialect dialect)
@@ -340,24 +355,12 @@ public static partial class HistorianIngest
 
     private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
     {
-        if (wide.PlainRoute && !part.First && IsPlain(part.Buffer.AsSpan(0, part.Length)))
+        if (wide.PlainRoute && !part.First && part.Plain)
         {
             ReadPlainPart(part, wide, target);
             target.Plain = true;
         }
         else ReadCsvPart(part, wide, target);
-    }
-
-    /// <summary>
-    /// A part whose records are plain delimited text, where CSV's quoting rules have nothing to do: no quote anywhere,
-    /// and every carriage return part of a CRLF line end (a lone CR is a line break to the CSV reader).
-    /// </summary>
-    internal static bool IsPlain(ReadOnlySpan<byte> data)
-    {
-        var at = data.IndexOfAny((byte)'"', (byte)'\r');
-        if (at < 0) return true;
-        if (data[at] == (byte)'"' || data[at..].Contains((byte)'"')) return false;
-        return data[at..].Count((byte)'\r') == data[at..].Count("\r\n"u8);
     }
 
     /// <summary>The rows of a part read by the CSV reader (quoting, other encodings, the header part).</summary>
@@ -399,7 +402,7 @@ public static partial class HistorianIngest
     }
 
     /// <summary>
-    /// The rows of a plain part (<see cref="IsPlain"/>) read in place, field by field, each number parsed as its
+    /// The rows of a plain part (<see cref="FilePart.Plain"/>) read in place, field by field, each number parsed as its
     /// field is found: the same fields the CSV reader gives (delimiter-separated, untrimmed, a missing field empty,
     /// empty lines skipped), without finding every field's ends first.
     /// </summary>

@@ -90,8 +90,15 @@ public class FilePartsTests
     [InlineData("1,2\r\n3,4\r\r\n", false)]
     [InlineData("1,\"2\"\n", false)]
     [InlineData("1,2\r\n\"3\",4\n", false)]
-    public void A_part_is_plain_without_quotes_and_lone_carriage_returns(string text, bool plain) =>
-        Assert.Equal(plain, HistorianIngest.IsPlain(Encoding.ASCII.GetBytes(text)));
+    public void A_part_is_plain_without_quotes_and_lone_carriage_returns(string text, bool plain)
+    {
+        Assert.Equal(text.Length, HistorianIngest.RecordsEnd(Encoding.ASCII.GetBytes(text), out _, out var found));
+        Assert.Equal(plain, found);
+    }
+
+    /// <summary>The definition, byte by byte: no quote, and every CR followed by LF.</summary>
+    private static bool IsPlain(byte[] d, int n) =>
+        !d.Take(n).Contains((byte)'"') && Enumerable.Range(0, n).All(i => d[i] != '\r' || (i + 1 < n && d[i + 1] == '\n'));
 
     private static void AssertSame(IngestResult whole, IngestResult parts)
     {
@@ -170,10 +177,14 @@ public class FilePartsTests
         for (var length = 0; length < 300; length++)
         {
             var data = Enumerable.Range(0, length).Select(_ => "\n\"a,1\r\r"[rng.Next(7)]).Select(c => (byte)c).ToArray();
-            Assert.Equal((Breaks(data, data.Length), data.Count(b => b == '"')), HistorianIngest.CountBreaksAndQuotes(data));
-            var end = HistorianIngest.RecordsEnd(data, out var lines);
+            var (breaks, quotes, _) = HistorianIngest.CountBreaksAndQuotes(data);
+            Assert.Equal((Breaks(data, data.Length), data.Count(b => b == '"')), (breaks, quotes));
+            var end = HistorianIngest.RecordsEnd(data, out var lines, out var plain);
             if (end < 0) continue;
             Assert.Equal(Breaks(data, end), lines);
+            // Plain when found so is plain by definition (unsure is allowed only when a quote had to be stepped over).
+            if (plain) Assert.True(IsPlain(data, end), $"length {length}: run of {end} called plain");
+            else if (data.Take(end).Count(b => b == '"') == 0) Assert.False(IsPlain(data, end) && !data.Skip(end).Contains((byte)'"'), $"length {length}: plain run of {end} not found plain");
             Assert.True(data[end - 1] == '\n' || (data[end - 1] == '\r' && end < data.Length && data[end] != '\n'), $"length {length}: the run ends at {end}, not after a line break");
             Assert.Equal(0, data.Take(end).Count(b => b == '"') % 2);
         }
