@@ -152,6 +152,8 @@ public static class PlantConfigurationReader
         if (layout is null) s.Error("layout", $"'{layoutText}' is not a layout; use \"wide\" (a column per tag) or \"long\" (tag, timestamp, value rows).");
         var delimiter = ReadChar(s, "delimiter", [',', ';', '\t', '|'], "\",\", \";\", \"\\t\" or \"|\"");
         var decimalSep = ReadChar(s, "decimal", ['.', ','], "\".\" or \",\"");
+        if (decimalSep == ',' && delimiter == ',')
+            s.Error("decimal", "',' is also the delimiter; with a decimal comma the fields are split by \";\", \"\\t\" or \"|\": set delimiter to the one the export uses.");
         var encoding = s.String("encoding");
         if (encoding is not null && !new[] { "utf-8", "windows-1252", "auto" }.Contains(encoding.ToLowerInvariant()))
             s.Error("encoding", $"'{encoding}' is not supported; use \"utf-8\", \"windows-1252\" or \"auto\".");

@@ -76,6 +76,8 @@ public static class FileDialectDetector
         var metadata = source.MetadataRows ?? DetectMetadataRows(lines, headerIndex, header, delimiter, source);
         var dataSample = lines.Skip(headerIndex + 1 + metadata).Take(200).Select(l => SplitLine(l.Text, delimiter)).ToList();
         var decimalSeparator = source.DecimalSeparator ?? DetectDecimal(dataSample, delimiter);
+        if (decimalSeparator == delimiter)
+            throw new IngestException(file, headerIndex + 1, null, $"the fields are split by '{delimiter}', which {source.Path}.decimal also names as the decimal separator; set {source.Path}.delimiter to the export's delimiter (\";\", \"\\t\" or \"|\").");
         return new FileDialect(encoding, encodingName, delimiter, decimalSeparator, headerIndex + 1, lines[headerIndex].Offset, metadata, header);
     }
 

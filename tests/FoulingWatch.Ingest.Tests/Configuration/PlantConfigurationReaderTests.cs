@@ -84,6 +84,15 @@ public class PlantConfigurationReaderTests
     }
 
     [Fact]
+    public void A_decimal_comma_with_the_comma_as_delimiter_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger(), "{ \"files\": [\"*.csv\"], \"delimiter\": \",\", \"decimal\": \",\" }");
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("data.sources[0].decimal", e.Path);
+        Assert.Equal("',' is also the delimiter; with a decimal comma the fields are split by \";\", \"\\t\" or \"|\": set delimiter to the one the export uses.", e.Message);
+    }
+
+    [Fact]
     public void A_file_pattern_matching_nothing_is_an_error()
     {
         using var plant = new TestPlant().WithConfig("{ \"files\": [\"exports/*.csv\"] }");

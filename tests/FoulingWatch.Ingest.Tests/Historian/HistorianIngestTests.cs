@@ -228,4 +228,12 @@ public class HistorianIngestTests
         Assert.Equal((5, 4, 1L), (flow.Read, flow.Used, Rejected(flow, RejectReason.Duplicate)));
         Assert.Equal(120 / 3.6, r.Series["FI-101"][2], 9);
     }
+
+    [Fact]
+    public void A_decimal_comma_set_for_a_comma_delimited_export_names_the_file_line_and_key()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"wide-artefacts.csv\"], \"decimal\": \",\" }");
+        var ex = Assert.Throws<IngestException>(() => HistorianIngest.Run(PlantConfigurationReader.Load(plant.ConfigPath)));
+        Assert.Equal("wide-artefacts.csv: line 1: the fields are split by ',', which data.sources[0].decimal also names as the decimal separator; set data.sources[0].delimiter to the export's delimiter (\";\", \"\\t\" or \"|\").", ex.Message);
+    }
 }
