@@ -422,30 +422,26 @@ public static partial class HistorianIngest
         // Every record but perhaps the file's last ends in a line break; a last one without it is read from a copy
         // that has one, so that the number loops always stop on a byte that is not a digit.
         var whole = length > 0 && part.Buffer[length - 1] != (byte)'\n' ? part.Buffer.AsSpan(0, length).LastIndexOf((byte)'\n') + 1 : length;
-        fixed (byte* buffer = part.Buffer)
+        var data = part.Buffer.AsSpan(0, whole);
+        while (!data.IsEmpty)
         {
-            var data = new ReadOnlySpan<byte>(buffer, whole);
-            while (!data.IsEmpty)
-            {
-                var lineEnd = data.IndexOf((byte)'\n');
-                var record = data[..lineEnd];
-                data = data[(lineEnd + 1)..];
-                line++;
-                ReadPlainRecord(record, ref line, ref rows);
-            }
+            var lineEnd = data.IndexOf((byte)'\n');
+            var record = data[..lineEnd];
+            data = data[(lineEnd + 1)..];
+            ReadPlainRecord(record, ++line, ref rows);
         }
         if (whole < length)
         {
             var tail = new byte[length - whole + 1];
             part.Buffer.AsSpan(whole, length - whole).CopyTo(tail);
             tail[^1] = (byte)'\n';
-            line++;
-            ReadPlainRecord(tail.AsSpan(0, tail.Length - 1), ref line, ref rows);
+            ReadPlainRecord(tail.AsSpan(0, tail.Length - 1), ++line, ref rows);
         }
         CountUsed(target, rows);
 
+        // The record's bytes are followed in memory by its line break (the number loops stop on it).
         [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-        void ReadPlainRecord(ReadOnlySpan<byte> record, ref long line, ref long rows)
+        void ReadPlainRecord(ReadOnlySpan<byte> record, long line, ref long rows)
         {
             if (!record.IsEmpty && record[^1] == (byte)'\r') record = record[..^1];
             if (record.IsEmpty) return;
