@@ -37,10 +37,11 @@ public static class PlantAnalysis
             progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest);
             var current = Current(history);
-            var trend = TrendAnalysis.Run(history);
+            var trend = TrendAnalysis.Run(history, config.ShutdownWindows);
             results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));
         }
-        var plan = FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(), config.ShutdownWindows);
+        var plan = FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(), config.ShutdownWindows,
+            config.Site.TimeZone);
         return new PlantResult(config, ingest, results, plan);
     }
 

@@ -1,3 +1,4 @@
+using FoulingWatch.Analysis.Economics;
 using System.Globalization;
 using FoulingWatch.Analysis;
 using FoulingWatch.Ingest.Configuration;
@@ -25,11 +26,11 @@ public static class AnalyzeCommand
         }
         if (quiet) return FoulingWatchCommand.Success;
         output.WriteLine($"{config.Site.Name}: {result.Exchangers.Count} exchangers, {result.Ingest.IntervalCount} intervals of {result.Ingest.Interval.TotalMinutes:0} min from {result.Ingest.GridStart:yyyy-MM-dd}.");
-        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "cleanliness", "Rf m2K/W", "± σ", "lost duty kW", "model", "limit reached", "note");
+        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "cleanliness", "Rf m2K/W", "± σ", "lost duty kW", "model", "limit P10 … P50 … P90", "note");
         foreach (var x in result.Exchangers)
         {
             var c = x.Current;
-            var note = x.History.Refusal ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}" : "");
+            var note = x.History.Refusal ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance, "0.000000"), F(c.FoulingResistanceSigma, "0.000000"),
                 F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast),
@@ -61,28 +62,45 @@ public static class AnalyzeCommand
     public static void WritePlan(PlantResult result, TextWriter output)
     {
         var currency = result.Configuration.Economics.Currency;
-        output.WriteLine($"Cleaning plan ({result.Plan.Method}); money in {currency}:");
-        var p = new TextTable("rank", "exchanger", "window", "starts", "net saving", "90 % interval", "payback d", "CO2 avoided t", "fouling now /d", "note");
+        var zone = result.Configuration.Site.TimeZone;
+        output.WriteLine($"Cleaning plan: {result.Plan.Method}.");
+        var p = new TextTable("rank", "exchanger", "action", "date", $"saving {currency}", "90 % interval", "P(saves)", "P(best)",
+            "CO2 avoided t");
         foreach (var e in result.Plan.Entries)
         {
-            var econ = result.Exchangers.First(x => x.History.Exchanger.Id == e.ExchangerId).Economics;
-            p.Add(e.Rank, e.ExchangerId, e.Window?.Name ?? "—", e.Window is { } w ? TimeZoneInfo.ConvertTime(w.Start, result.Configuration.Site.TimeZone).ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "—",
-                e.Option is { } o ? o.Saving.ToString("N0", CultureInfo.InvariantCulture) : "—",
-                e.Option is { } o2 ? $"{o2.SavingLow.ToString("N0", CultureInfo.InvariantCulture)} … {o2.SavingHigh.ToString("N0", CultureInfo.InvariantCulture)}" : "—",
-                e.Option is { } o3 ? F(o3.PaybackDays, "0") : "—", e.Option is { } o4 ? F(o4.Co2Avoided / 1000, "0") : "—",
-                F(econ.CostPerDayNow, "N0"), e.Note.Length > 70 ? e.Note[..70] + "…" : e.Note);
+            var o = e.Option;
+            p.Add(e.Rank, e.ExchangerId, o is null ? "—" : o.Kind == "window" ? o.Label : o.Kind, o is null ? "—" : DecisionText.Date(o.Date, zone),
+                o is null ? "—" : o.Saving.ToString("N0", CultureInfo.InvariantCulture),
+                o is null ? "—" : $"{o.SavingLow.ToString("N0", CultureInfo.InvariantCulture)} … {o.SavingHigh.ToString("N0", CultureInfo.InvariantCulture)}",
+                o is null ? "—" : F(o.ProbabilitySaving * 100, "0") + (double.IsFinite(o.ProbabilitySaving) ? " %" : ""),
+                double.IsFinite(e.ProbabilityBest) ? F(e.ProbabilityBest * 100, "0") + " %" : "—",
+                o is null ? "—" : F(o.Co2Avoided / 1000, "0"));
         }
         output.Write(p);
-        output.WriteLine($"Total saving of the plan: {result.Plan.TotalSaving.ToString("N0", CultureInfo.InvariantCulture)} {currency}.");
+        foreach (var e in result.Plan.Entries.Where(e => e.Warning is not null || e.Note.Length > 0))
+        {
+            if (e.Warning is not null) output.WriteLine($"  {e.ExchangerId}: {e.Warning}");
+            if (e.Note.Length > 0) output.WriteLine($"  {e.ExchangerId}: {e.Note}");
+        }
+        output.WriteLine($"Total expected saving of the plan: {result.Plan.TotalSaving.ToString("N0", CultureInfo.InvariantCulture)} {currency}, " +
+                         "against running each exchanger to its limit (or never cleaning where no limit applies), over three years.");
+        output.WriteLine(Caution);
     }
+
+    public const string Caution =
+        "Caution: advice only; results depend on instrument quality. Cleaning, isolation and operating changes of pressure " +
+        "equipment follow site procedures, local codes and licensed engineering practice.";
 
     private static string LimitText(Analysis.Trends.LimitForecast? f) => f switch
     {
         null => "—",
         { AlreadyReached: true } => "reached",
+        { State: Analysis.Trends.ForecastState.AtLimit } => $"at limit ({f.ProbabilityReachedNow * 100:0} %)",
         { BeyondHorizon: true } => "beyond horizon",
-        _ => $"{f.Date:yyyy-MM-dd} ({(f.Low is { } lo ? lo.ToString("yyyy-MM") : "now")}…{(f.High is { } hi ? hi.ToString("yyyy-MM") : "later")})",
+        _ => $"{D(f.P10)} … {D(f.Date)} … {D(f.P90)}",
     };
+
+    private static string D(DateTimeOffset? t) => t is { } v ? v.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "later";
 
     /// <summary>A one-line progress bar for an interactive terminal: "[#######.........]  45 %  reading file.csv".</summary>
     public static string ProgressLine(string stage, double fraction)

@@ -104,9 +104,12 @@ public class PlanCommandTests
         using var plant = new SamplePlantCopy(windowStart: "2026-06-01T00:00:00Z", windowEnd: "2026-09-01T00:00:00Z");
         var (code, output, _) = SamplePlantCopy.Run("plan", "--config", plant.ConfigPath, "--out", plant.Out("p"));
         Assert.Equal(0, code);
-        Assert.Contains("Cleaning plan (exact: transportation problem", output);
+        Assert.Contains("Cleaning plan: cleanings placed in the shutdown windows to give the largest total expected saving", output);
+        Assert.Contains("Caution: advice only; results depend on instrument quality.", output);
         var lines = File.ReadAllLines(Path.Combine(plant.Out("p"), "plan.csv"));
-        Assert.Equal("rank,exchanger,service,window,window_start,window_end,net_saving,net_saving_90_low,net_saving_90_high,fouling_cost_until_window,payback_days,co2_avoided_t,cost_per_day_now,currency,note", lines[0]);
+        Assert.Equal("rank,exchanger,service,action,window,date,net_saving,net_saving_90_low,net_saving_90_high,probability_saving," +
+                     "probability_best,payback_days,energy_avoided_GJ,co2_avoided_t,probability_unplanned_stop,cost_per_day_now,currency,warning,note",
+            lines[0]);
         Assert.Equal(7, lines.Length); // header + six exchangers
         var json = SamplePlantCopy.Run("plan", "--config", plant.ConfigPath, "--out", plant.Out("q"), "--json");
         using var doc = System.Text.Json.JsonDocument.Parse(json.Output);

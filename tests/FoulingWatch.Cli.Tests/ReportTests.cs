@@ -22,7 +22,7 @@ public sealed class SampleRun : IDisposable
 
 public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
 {
-    private static readonly string Chromium = "/usr/bin/chromium";
+    private static string Chromium => BrowserFactAttribute.Chromium;
 
     private static (string Dom, string Log) Headless(string html)
     {
@@ -45,7 +45,7 @@ public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
         return (dom.Result, log.Result);
     }
 
-    [Fact]
+    [BrowserFact]
     public void The_report_loads_in_a_headless_browser_with_every_chart_decoded_and_no_errors()
     {
         var html = Path.Combine(run.Out, "report.html");

@@ -13,7 +13,12 @@ public sealed record OperatingStateSettings(TimeSpan SteadyWindow, double Steady
 }
 
 /// <summary>One analysed instant of one exchanger.</summary>
-public sealed record SampleResult(DateTimeOffset Timestamp, SampleStatus Status, SampleEvaluation Evaluation, double FoulingResistanceSigma);
+/// <param name="FoulingResistanceSigma">Combined standard uncertainty of Rf, √(systematic² + random²), m²·K/W.</param>
+/// <param name="SigmaSystematic">Systematic part: instrument calibration (configured accuracies) and the clean reference;
+/// it does not average away. NaN: not evaluated (then the combined σ is taken as random).</param>
+/// <param name="SigmaRandom">Random part, from the scatter of the day's Rf about its median; it averages away.</param>
+public sealed record SampleResult(DateTimeOffset Timestamp, SampleStatus Status, SampleEvaluation Evaluation, double FoulingResistanceSigma,
+    double SigmaSystematic = double.NaN, double SigmaRandom = double.NaN);
 
 /// <summary>What the clean-U reference is and how well it was determined.</summary>
 public sealed record CleanReferenceReport(string Method, string Description, string? Refusal, int CalibrationSamples, double? ResidualStandardDeviation,
@@ -78,25 +83,35 @@ public static class BackCalculator
             return new ExchangerHistory(x, Build(data, evaluations, new double[n]), cleanReport, SensorCheckOf(x, data, evaluations, evaluator),
                 $"no clean-U reference: {cleanReport.Refusal}");
 
-        var sigmas = new double[n];
+        var systematic = new double[n];
         Parallel.For(0, n, k =>
         {
             var e = evaluations[k];
-            if (!(e.UActual > 0)) { sigmas[k] = double.NaN; return; }
+            if (!(e.UActual > 0)) { systematic[k] = double.NaN; return; }
             var used = e.Reconciliation?.Adjusted ?? e.Measurements;
             evaluations[k] = evaluator.Complete(e, clean, used);
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
-            sigmas[k] = e.Status == SampleStatus.Ok ? evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean) : double.NaN;
+            if (e.Status != SampleStatus.Ok) { systematic[k] = double.NaN; return; }
+            var instruments = evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean);
+            var reference = clean.InverseSigma(e.TubeFlow, e.ShellFlow);
+            systematic[k] = Math.Sqrt(instruments * instruments + reference * reference);
         });
-        return new ExchangerHistory(x, Build(data, evaluations, sigmas), cleanReport, SensorCheckOf(x, data, evaluations, evaluator), null);
+        var random = RandomPart.PerSample(data, evaluations);
+        return new ExchangerHistory(x, Build(data, evaluations, systematic, random), cleanReport,
+            SensorCheckOf(x, data, evaluations, evaluator), null);
     }
 
-    private static List<SampleResult> Build(IngestResult data, SampleEvaluation[] evaluations, double[] sigmas)
+    private static List<SampleResult> Build(IngestResult data, SampleEvaluation[] evaluations, double[] systematic, double[]? random = null)
     {
         var list = new List<SampleResult>(evaluations.Length);
         for (var k = 0; k < evaluations.Length; k++)
-            list.Add(new SampleResult(data.IntervalStart(k), evaluations[k].Status, evaluations[k], sigmas[k]));
+        {
+            var sys = systematic[k];
+            var rnd = random?[k] ?? double.NaN;
+            var combined = double.IsFinite(rnd) ? Math.Sqrt(sys * sys + rnd * rnd) : sys;
+            list.Add(new SampleResult(data.IntervalStart(k), evaluations[k].Status, evaluations[k], combined, sys, rnd));
+        }
         return list;
     }
 

@@ -7,6 +7,9 @@ public interface ICleanUModel
 {
     double CleanU(double tubeFlow, double shellFlow);
     string Description { get; }
+
+    /// <summary>Standard uncertainty of 1/U_clean (m²·K/W) at these flows: a systematic error, whole for the cycle.</summary>
+    double InverseSigma(double tubeFlow, double shellFlow);
 }
 
 /// <summary>
@@ -32,18 +35,25 @@ public sealed class DatasheetCleanU : ICleanUModel
         _rShell = (1 - reference.TubeShare) * film;
         _nTube = tubePhaseChange ? 0 : reference.TubeExponent;
         _nShell = shellPhaseChange ? 0 : reference.ShellExponent;
-        Description = FormattableString.Invariant(
-            $"datasheet: U = {reference.CleanU:0.#} W/m2K at design flows, tube share {reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W");
+        Description = string.Create(System.Globalization.CultureInfo.InvariantCulture,
+            $"datasheet: U = {reference.CleanU:0.#} W/m2K ± {reference.RelativeUncertainty:P0} at design flows, tube share " +
+            $"{reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W");
     }
 
     public string Description { get; }
+
+    /// <summary>u(1/U_c) = u_rel·(1/U_c): a relative error of the datasheet U scales the whole clean resistance
+    /// (first order, GUM 5.1.6 for a power law with exponent −1).</summary>
+    public double InverseSigma(double tubeFlow, double shellFlow) => _r.RelativeUncertainty / CleanU(tubeFlow, shellFlow);
 
     public double CleanU(double tubeFlow, double shellFlow) =>
         1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) + _r.WallResistance);
 }
 
 /// <summary>Clean U from a Wilson-plot fit: 1/U = a + b·ṁ_t^−n_t + c·ṁ_s^−n_s (b or c may be zero when a side did not vary).</summary>
-public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube, double nShell, string description) : ICleanUModel
+/// <param name="covariance">Covariance of (a, b, c) from the fit (zeros for a side not fitted), or null for none.</param>
+public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube, double nShell, string description,
+    double[,]? covariance = null) : ICleanUModel
 {
     public double A { get; } = a;
     public double B { get; } = b;
@@ -52,4 +62,15 @@ public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube,
 
     public double CleanU(double tubeFlow, double shellFlow) =>
         1 / (A + B * Math.Pow(tubeFlow, -nTube) + C * Math.Pow(shellFlow, -nShell));
+
+    /// <summary>u(1/U_c) = √(gᵀ·Cov·g) with g = (1, ṁ_t^−n_t, ṁ_s^−n_s): the fit's parameter covariance at these flows.</summary>
+    public double InverseSigma(double tubeFlow, double shellFlow)
+    {
+        if (covariance is null) return 0;
+        Span<double> g = [1, Math.Pow(tubeFlow, -nTube), Math.Pow(shellFlow, -nShell)];
+        var v = 0.0;
+        for (var i = 0; i < 3; i++)
+        for (var j = 0; j < 3; j++) v += g[i] * covariance[i, j] * g[j];
+        return Math.Sqrt(Math.Max(0, v));
+    }
 }

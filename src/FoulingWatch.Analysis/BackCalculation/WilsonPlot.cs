@@ -51,14 +51,52 @@ public static class WilsonPlot
                 var resid = Math.Sqrt(rows.Sum(r => Math.Pow(r.Y - (a + b * r.Xt + c * r.Xs), 2)) / Math.Max(1, rows.Count - columns.Count));
                 var sides = useT && useS ? "both sides" : useT ? "tube side only (shell flow steady)" : "shell side only (tube flow steady)";
                 var description = FormattableString.Invariant($"baseline (Wilson plot, {sides}) from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}: 1/U = {a:G4} + {b:G4}·ṁt^-{nt:0.##} + {c:G4}·ṁs^-{ns:0.##}");
-                return (new WilsonPlotCleanU(a, b, c, nt, ns, description), new CleanReferenceReport("baseline", description, null, rows.Count, resid, start, end));
+                var map = new List<int> { 0 };
+                if (useT) map.Add(1);
+                if (useS) map.Add(2);
+                var covariance = Covariance(x, y - x * beta, map);
+                return (new WilsonPlotCleanU(a, b, c, nt, ns, description, covariance),
+                    new CleanReferenceReport("baseline", description, null, rows.Count, resid, start, end));
             }
             note = "the fit gave a negative side resistance, which is unphysical";
         }
         var mean = rows.Sum(r => r.W * r.Y) / rows.Sum(r => r.W);
         var sd = Math.Sqrt(rows.Sum(r => Math.Pow(r.Y - mean, 2)) / Math.Max(1, rows.Count - 1));
         var text = FormattableString.Invariant($"baseline: single constant clean U = {1 / mean:0.#} W/m2K (mean of {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}) because {note}; Rf then also moves with flow");
-        return (new WilsonPlotCleanU(mean, 0, 0, nt, ns, text), new CleanReferenceReport("baseline-constant", text, null, rows.Count, sd, start, end));
+        var meanCovariance = new double[3, 3];
+        meanCovariance[0, 0] = sd * sd / rows.Count * SerialInflation(rows.Select(r => r.Y - mean).ToArray());
+        return (new WilsonPlotCleanU(mean, 0, 0, nt, ns, text, meanCovariance),
+            new CleanReferenceReport("baseline-constant", text, null, rows.Count, sd, start, end));
+    }
+
+    /// <summary>Covariance of (a, b, c) as s²·(XᵀX)⁻¹ of the weighted fit, widened for serially correlated residuals;
+    /// columns not fitted stay zero.</summary>
+    private static double[,] Covariance(Matrix<double> x, Vector<double> residual, List<int> map)
+    {
+        var dof = Math.Max(1, x.RowCount - x.ColumnCount);
+        var s2 = residual.DotProduct(residual) / dof;
+        var inverse = (x.TransposeThisAndMultiply(x)).Inverse() * (s2 * SerialInflation(residual.ToArray()));
+        var result = new double[3, 3];
+        for (var i = 0; i < map.Count; i++)
+        for (var j = 0; j < map.Count; j++) result[map[i], map[j]] = double.IsFinite(inverse[i, j]) ? inverse[i, j] : 0;
+        return result;
+    }
+
+    /// <summary>Variance factor (1 + ρ)/(1 − ρ) for residuals with lag-1 autocorrelation ρ (samples in time order),
+    /// clamped to [1, 100].</summary>
+    /// <remarks>The variance of a mean of an AR(1) series is σ²/n·(1 + ρ)/(1 − ρ) for large n: the "effective sample size"
+    /// n' = n(1 − ρ)/(1 + ρ) (e.g. Wilks, Statistical Methods in the Atmospheric Sciences, ch. 5; from memory). Samples
+    /// minutes apart after a cleaning are far from independent, so the plain covariance would be much too small.</remarks>
+    public static double SerialInflation(double[] residual)
+    {
+        double num = 0, den = 0;
+        for (var i = 0; i < residual.Length; i++)
+        {
+            den += residual[i] * residual[i];
+            if (i > 0) num += residual[i] * residual[i - 1];
+        }
+        var rho = den > 0 ? Math.Clamp(num / den, 0, 0.99) : 0;
+        return Math.Min(100, (1 + rho) / (1 - rho));
     }
 
     private static double Cv(IEnumerable<double> values)

@@ -16,14 +16,16 @@ public sealed record Pricing(string Basis, string Currency, double MoneyPerJoule
 /// <summary>Lost heat, fuel, CO2 and money over a period.</summary>
 public sealed record CostTotals(DateTimeOffset From, DateTimeOffset To, double LostEnergy, double Fuel, double Co2, double Money);
 
-/// <summary>The decision for one shutdown window: what cleaning there costs and saves against not cleaning within the horizon.</summary>
-public sealed record WindowOption(ShutdownWindow Window, double FoulingCostUntil, double TotalCost, double Saving, double SavingLow, double SavingHigh,
-    double PaybackDays, double Co2Avoided);
-
-/// <summary>Economics of one exchanger: pricing, costs to date, optimal interval and the window options.</summary>
+/// <summary>Economics of one exchanger: pricing, costs to date, the cost-optimal cycle and the cleaning decision.</summary>
+/// <param name="OptimalIntervalDays">Cost-optimal cycle length after a cleaning (central path), capped at the limit; null when
+/// no finite optimum exists within the search range (cleaning never pays for itself on this path).</param>
 public sealed record ExchangerEconomics(string ExchangerId, Pricing? Pricing, string? NotPriced, CostTotals? CurrentCycle, CostTotals? LastYear,
     CostTotals? WholeRecord, double CostPerDayNow, double Co2PerDayNow, double? OptimalIntervalDays, double? OptimalCostRatePerDay,
-    DateTimeOffset? UnconstrainedOptimum, IReadOnlyList<WindowOption> Windows, WindowOption? Recommended, string Statement);
+    DateTimeOffset? UnconstrainedOptimum, CleaningDecision? Decision, string Statement)
+{
+    public DecisionOption? Recommended => Decision?.Recommended;
+    public IReadOnlyList<DecisionOption> Options => Decision?.Options ?? [];
+}
 
 /// <summary>Prices the lost duty and finds the cost-optimal cleaning time and window for one exchanger.</summary>
 public static class FoulingEconomics
@@ -68,7 +70,9 @@ public static class FoulingEconomics
     }
 
     /// <summary>Typical recent conditions (median of the last 30 days of usable samples) for turning Rf into lost duty.</summary>
-    public sealed record TypicalConditions(double HotCapacityRate, double ColdCapacityRate, Temperature HotInlet, Temperature ColdInlet, double CleanU);
+    /// <param name="Duty">Median duty, W: what the site loses per second while the exchanger is out of service.</param>
+    public sealed record TypicalConditions(double HotCapacityRate, double ColdCapacityRate, Temperature HotInlet, Temperature ColdInlet, double CleanU,
+        double Duty);
 
     public static TypicalConditions? Typical(ExchangerHistory h)
     {
@@ -79,7 +83,7 @@ public static class FoulingEconomics
         if (h.Exchanger.Hot.Fluid is Core.FluidModels.SteamPhaseChange hs) thi = hs.SaturationTemperature.Kelvin;
         if (h.Exchanger.Cold.Fluid is Core.FluidModels.SteamPhaseChange cs) tci = cs.SaturationTemperature.Kelvin;
         return new TypicalConditions(Med(s => s.Evaluation.HotCapacityRate), Med(s => s.Evaluation.ColdCapacityRate),
-            Temperature.FromKelvin(thi), Temperature.FromKelvin(tci), Med(s => s.Evaluation.UClean));
+            Temperature.FromKelvin(thi), Temperature.FromKelvin(tci), Med(s => s.Evaluation.UClean), Med(s => s.Evaluation.Duty));
     }
 
     /// <summary>Lost duty (W) at typical conditions for a fouling resistance: Q(U_clean) − Q(U) with 1/U = 1/U_clean + Rf, by ε-NTU.</summary>
@@ -95,7 +99,7 @@ public static class FoulingEconomics
         var x = h.Exchanger;
         var (pricing, why) = Price(x, config.Economics);
         if (pricing is null)
-            return new ExchangerEconomics(x.Id, null, why, null, null, null, 0, 0, null, null, null, [], null, why!);
+            return new ExchangerEconomics(x.Id, null, why, null, null, null, 0, 0, null, null, null, null, why!);
         var lost = LostEnergyPerInterval(h, config.Data.Interval);
         var end = h.Samples.Count > 0 ? h.Samples[^1].Timestamp + config.Data.Interval : DateTimeOffset.MinValue;
         var start = h.Samples.Count > 0 ? h.Samples[0].Timestamp : end;
@@ -106,89 +110,19 @@ public static class FoulingEconomics
         var lostNow = double.IsFinite(current.LostDuty) ? Math.Max(0, current.LostDuty) : 0;
         var perDay = lostNow * 86400 * pricing.MoneyPerJoule;
         var co2PerDay = lostNow * 86400 * pricing.Co2PerJoule;
+        ExchangerEconomics Partial(string statement) =>
+            new(x.Id, pricing, null, currentCycle, lastYear, whole, perDay, co2PerDay, null, null, null, null, statement);
 
-        var cleaningCost = (x.Cleaning.Cost ?? double.NaN) + (x.Cleaning.DowntimeCostPerDay ?? 0) * (x.Cleaning.Downtime?.TotalDays ?? 0);
-        var downtime = x.Cleaning.Downtime?.TotalDays ?? 0;
         var typical = Typical(h);
-        string statement;
-        if (!double.IsFinite(cleaningCost) || cycle?.Chosen?.Fit is null || typical is null)
-        {
-            statement = !double.IsFinite(cleaningCost) ? "no cleaning plan: give cleaning.cost (and cleaning.downtime)"
-                : typical is null ? "no cleaning plan: no usable recent samples"
-                : $"no cleaning plan: the current cycle has no fitted fouling law ({cycle?.Refusal ?? "no cycle"})";
-            return new ExchangerEconomics(x.Id, pricing, null, currentCycle, lastYear, whole, perDay, co2PerDay, null, null, null, [], null, statement);
-        }
+        if (x.Cleaning.Cost is null) return Partial("no cleaning plan: give cleaning.cost (and cleaning.downtime)");
+        if (trend.Withheld is not null) return Partial(trend.Withheld);
+        if (typical is null) return Partial("no cleaning plan: no usable recent samples");
+        if (cycle?.Chosen?.Fit is null || trend.Draws is null)
+            return Partial($"no cleaning plan: the current cycle has no fitted fouling law ({cycle?.Refusal ?? "no cycle"})");
 
-        var model = cycle.Chosen.Model;
-        var fit = cycle.Chosen.Fit;
-        var now = cycle.Points[^1].Day + TimeSpan.FromDays(1);
-        var tNow = cycle.Days(now);
-        var futureWindows = config.ShutdownWindows.Where(w => w.Start >= now && w.Capacity > 0).OrderBy(w => w.Start).ToList();
-        var horizon = (futureWindows.Count > 0 ? futureWindows.Max(w => w.End) : now) + TimeSpan.FromDays(365);
-
-        var central = Evaluate(x, typical, pricing, model, fit.Parameters, cleaningCost, downtime, tNow, now, horizon, futureWindows);
-        var savings = futureWindows.Select(_ => new List<double>()).ToList();
-        foreach (var p in TrendAnalysis.ParameterDraws(model, fit, TrendAnalysis.StableSeed(x.Id) + 1, UncertaintyDraws))
-        {
-            var e = Evaluate(x, typical, pricing, model, p, cleaningCost, downtime, tNow, now, horizon, futureWindows);
-            for (var i = 0; i < futureWindows.Count; i++) savings[i].Add(e.Options[i].Saving);
-        }
-        var options = central.Options.Select((o, i) =>
-        {
-            var s = savings[i].Order().ToArray();
-            return s.Length == 0 ? o : o with { SavingLow = s[(int)(0.05 * (s.Length - 1))], SavingHigh = s[(int)(0.95 * (s.Length - 1))] };
-        }).ToList();
-        var recommended = options.Where(o => o.Saving > 0).MaxBy(o => o.Saving);
-        var optimumDate = cycle.Start + TimeSpan.FromDays(central.TStar);
-        var currency = pricing.Currency;
-        var zone = config.Site.TimeZone;
-        string Local(DateTimeOffset t) => TimeZoneInfo.ConvertTime(t, zone).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture);
-        statement = recommended is null
-            ? FormattableString.Invariant($"no window pays: cleaning costs {cleaningCost:N0} {currency} against fouling at {perDay:N0} {currency}/day now; optimal interval {central.TStar:0} days")
-            : FormattableString.Invariant($"clean in '{recommended.Window.Name}' ({Local(recommended.Window.Start)}): saves {recommended.Saving:N0} {currency} (90 % interval {recommended.SavingLow:N0} to {recommended.SavingHigh:N0}) over not cleaning before {Local(horizon)}; payback {recommended.PaybackDays:0} days; cost-optimal interval {central.TStar:0} days{(optimumDate < now ? " (already passed: clean at the first opportunity)" : $" (optimum {Local(optimumDate)})")}");
-        return new ExchangerEconomics(x.Id, pricing, null, currentCycle, lastYear, whole, perDay, co2PerDay, central.TStar, central.PhiStar * 86400,
-            optimumDate, options, recommended, statement);
-    }
-
-    private sealed record Evaluation(double TStar, double PhiStar, List<WindowOption> Options);
-
-    private static Evaluation Evaluate(ExchangerConfiguration x, TypicalConditions typical, Pricing pricing, FoulingModel model, double[] p,
-        double cleaningCost, double downtime, double tNow, DateTimeOffset now, DateTimeOffset horizon, List<ShutdownWindow> windows)
-    {
-        // Cumulative fouling cost F(age) in currency, age in days, on a daily grid to 6 years after the cleaning.
-        var maxAge = Math.Max(tNow + (horizon - now).TotalDays, 5 * 365) + 2;
-        var n = (int)Math.Ceiling(maxAge) + 1;
-        var cumulative = new double[n];
-        var r0 = model.Value(p, 0);
-        double Rate(double age) => LostDutyAt(x, typical, model.Value(p, age) - Math.Min(0, r0)) * pricing.MoneyPerJoule * 86400; // per day
-        var previous = Rate(0);
-        for (var i = 1; i < n; i++)
-        {
-            var r = Rate(i);
-            cumulative[i] = cumulative[i - 1] + 0.5 * (previous + r);
-            previous = r;
-        }
-        double F(double age)
-        {
-            if (age <= 0) return 0;
-            var i = Math.Min((int)age, n - 2);
-            return cumulative[i] + (cumulative[i + 1] - cumulative[i]) * (age - i);
-        }
-        var (tStar, phi) = CleaningInterval.NumericOptimum(cleaningCost, downtime, F, 1, n - 2);
-        var totalDays = (horizon - now).TotalDays;
-        var none = F(tNow + totalDays) - F(tNow);
-        var options = new List<WindowOption>();
-        foreach (var w in windows)
-        {
-            var d = (w.Start - now).TotalDays;
-            var until = F(tNow + d) - F(tNow);
-            var after = phi * Math.Max(0, totalDays - d - downtime);
-            var total = until + cleaningCost + after;
-            var ratePerDay = Rate(tNow + d);
-            var avoidedEnergy = (none - until - after) / pricing.MoneyPerJoule;
-            options.Add(new WindowOption(w, until, total, none - total, double.NaN, double.NaN,
-                ratePerDay > 0 ? cleaningCost / ratePerDay : double.PositiveInfinity, Math.Max(0, avoidedEnergy) * pricing.Co2PerJoule));
-        }
-        return new Evaluation(tStar, phi / 86400, options);
+        var decision = CleaningDecisions.Decide(x, typical, pricing, cycle, trend.Draws, trend.Forecast, config);
+        var optimum = decision.OptimalIntervalDays is { } days ? cycle.Start + TimeSpan.FromDays(days) : (DateTimeOffset?)null;
+        return new ExchangerEconomics(x.Id, pricing, null, currentCycle, lastYear, whole, perDay, co2PerDay, decision.OptimalIntervalDays,
+            decision.OptimalCostRatePerDay, optimum, decision, decision.Statement(config.Site.TimeZone));
     }
 }

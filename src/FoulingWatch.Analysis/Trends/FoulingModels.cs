@@ -116,37 +116,48 @@ public sealed class FallingRateFouling : FoulingModel
 }
 
 /// <summary>A least-squares fit of a model: parameters, covariance s²(JᵀWJ)⁻¹, weighted residual sum of squares.</summary>
-public sealed record FitResult(double[] Parameters, double[] StandardErrors, Matrix<double> Covariance, double WeightedResidualSumOfSquares, int Observations)
+/// <param name="Autocorrelation">φ, the AR(1) coefficient of the standardised residuals per day (0: independent errors);
+/// with φ &gt; 0 the residual sum of squares and covariance are those of the whitened (Prais–Winsten) problem.</param>
+/// <param name="LogDeterminantTerm">Σ ln(1 − φ^(2Δtᵢ)), the whitening's contribution to −2 ln L (0 for φ = 0).</param>
+public sealed record FitResult(double[] Parameters, double[] StandardErrors, Matrix<double> Covariance, double WeightedResidualSumOfSquares,
+    int Observations, double Autocorrelation = 0, double LogDeterminantTerm = 0)
 {
     public int DegreesOfFreedom => Observations - Parameters.Length;
     public double ResidualStandardDeviation => Math.Sqrt(WeightedResidualSumOfSquares / Math.Max(1, DegreesOfFreedom));
 }
 
 /// <summary>Weighted nonlinear least squares by MathNet's Levenberg–Marquardt minimiser, best of several starting points.</summary>
-public static class LeastSquares
+public static partial class LeastSquares
 {
-    public static FitResult? Fit(FoulingModel model, double[] t, double[] y, double[] weights, IEnumerable<double[]>? starts = null)
+    public static FitResult? Fit(FoulingModel model, double[] t, double[] y, double[] weights, IEnumerable<double[]>? starts = null) =>
+        Fit(model, t, y, weights, Whitening.None, starts);
+
+    private static FitResult? Fit(FoulingModel model, double[] t, double[] y, double[] weights, Whitening whitening,
+        IEnumerable<double[]>? starts = null)
     {
-        var x = Vector<double>.Build.DenseOfArray(t);
-        var obs = Vector<double>.Build.DenseOfArray(y);
-        var w = Vector<double>.Build.DenseOfArray(weights);
+        var n = t.Length;
+        var x = Vector<double>.Build.Dense(n, i => i);
+        var obs = Vector<double>.Build.DenseOfArray(whitening.Apply(y, weights));
+        var w = Vector<double>.Build.Dense(n, whitening.IsNone ? i => weights[i] : _ => 1.0);
         var k = model.ParameterNames.Length;
         Vector<double> F(Vector<double> p, Vector<double> xs)
         {
             var pa = p.ToArray();
-            return Vector<double>.Build.Dense(xs.Count, i => model.Value(pa, xs[i]));
+            var f = new double[n];
+            for (var i = 0; i < n; i++) f[i] = model.Value(pa, t[i]);
+            return Vector<double>.Build.DenseOfArray(whitening.Apply(f, weights));
         }
         Matrix<double> J(Vector<double> p, Vector<double> xs)
         {
             var pa = p.ToArray();
-            var m = Matrix<double>.Build.Dense(xs.Count, k);
+            var m = Matrix<double>.Build.Dense(n, k);
             Span<double> g = stackalloc double[k];
-            for (var i = 0; i < xs.Count; i++)
+            for (var i = 0; i < n; i++)
             {
-                model.Gradient(pa, xs[i], g);
+                model.Gradient(pa, t[i], g);
                 for (var j = 0; j < k; j++) m[i, j] = g[j];
             }
-            return m;
+            return whitening.ApplyColumns(m, weights);
         }
         var lower = model.LowerBounds(t, y);
         var upper = model.UpperBounds(t, y);
@@ -163,7 +174,7 @@ public static class LeastSquares
                     lower is null ? null : Vector<double>.Build.DenseOfArray(lower), upper is null ? null : Vector<double>.Build.DenseOfArray(upper));
                 var p = r.MinimizingPoint.ToArray();
                 if (p.Any(v => !double.IsFinite(v))) continue;
-                var fit = Finish(model, t, y, weights, p);
+                var fit = Finish(model, t, y, weights, p, whitening);
                 if (fit is not null && (best is null || fit.WeightedResidualSumOfSquares < best.WeightedResidualSumOfSquares)) best = fit;
             }
             catch (Exception ex) when (ex is ArithmeticException or ArgumentException or InvalidOperationException or MaximumIterationsException) { }
@@ -171,21 +182,31 @@ public static class LeastSquares
         return best;
     }
 
-    /// <summary>Covariance s²·(JᵀWJ)⁻¹ at the solution with s² = RSS_w/(n − k) (the usual estimate; as NIST StRD certifies).</summary>
-    private static FitResult? Finish(FoulingModel model, double[] t, double[] y, double[] w, double[] p)
+    /// <summary>Covariance s²·(JᵀWJ)⁻¹ at the solution with s² = RSS_w/(n − k) (the usual estimate; as NIST StRD certifies);
+    /// for a whitened fit the same on the whitened residuals and Jacobian.</summary>
+    private static FitResult? Finish(FoulingModel model, double[] t, double[] y, double[] w, double[] p, Whitening whitening)
     {
         var n = t.Length;
         var k = p.Length;
-        var jtj = Matrix<double>.Build.Dense(k, k);
+        var residual = new double[n];
+        var jacobian = Matrix<double>.Build.Dense(n, k);
         Span<double> g = stackalloc double[k];
-        var rss = 0.0;
         for (var i = 0; i < n; i++)
         {
-            var r = y[i] - model.Value(p, t[i]);
-            rss += w[i] * r * r;
+            residual[i] = y[i] - model.Value(p, t[i]);
             model.Gradient(p, t[i], g);
+            for (var a = 0; a < k; a++) jacobian[i, a] = g[a];
+        }
+        var z = whitening.Apply(residual, w);
+        var jw = whitening.ApplyColumns(jacobian, w);
+        var rss = 0.0;
+        var jtj = Matrix<double>.Build.Dense(k, k);
+        for (var i = 0; i < n; i++)
+        {
+            var wi = whitening.IsNone ? w[i] : 1.0;
+            rss += wi * z[i] * z[i];
             for (var a = 0; a < k; a++)
-            for (var b = 0; b < k; b++) jtj[a, b] += w[i] * g[a] * g[b];
+            for (var b = 0; b < k; b++) jtj[a, b] += wi * jw[i, a] * jw[i, b];
         }
         if (n <= k) return null;
         Matrix<double> inverse;
@@ -193,6 +214,6 @@ public static class LeastSquares
         if (!inverse.Enumerate().All(double.IsFinite)) return null;
         var cov = inverse * (rss / (n - k));
         var se = Enumerable.Range(0, k).Select(i => Math.Sqrt(Math.Max(0, cov[i, i]))).ToArray();
-        return new FitResult(p, se, cov, rss, n);
+        return new FitResult(p, se, cov, rss, n, whitening.Phi, whitening.LogDeterminantTerm);
     }
 }

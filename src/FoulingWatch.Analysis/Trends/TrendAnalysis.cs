@@ -6,8 +6,8 @@ using MathNet.Numerics.LinearAlgebra;
 
 namespace FoulingWatch.Analysis.Trends;
 
-/// <summary>One candidate model fitted to a cycle.</summary>
-public sealed record ModelCandidate(FoulingModel Model, FitResult? Fit, double Aicc, double RSquared, string? Skipped);
+/// <summary>One candidate model fitted to a cycle, with its Akaike weight among the cycle's candidates (NaN: not fitted).</summary>
+public sealed record ModelCandidate(FoulingModel Model, FitResult? Fit, double Aicc, double RSquared, string? Skipped, double AkaikeWeight = double.NaN);
 
 /// <summary>A fouling cycle [Start, End) between cleanings with its fitted models; the chosen one has the lowest AICc.</summary>
 public sealed record FoulingCycle(
@@ -20,15 +20,13 @@ public sealed record FoulingCycle(
 /// <summary>What a cleaning achieved: Rf just before and after, the fraction removed, and the fouling rates of the cycles either side.</summary>
 public sealed record CleaningEffect(Cleaning Cleaning, double? RfBefore, double? RfAfter, double? FractionRemoved, double? RateBefore, double? RateAfter);
 
-/// <summary>When the fouling limit is reached, from the chosen model of the current cycle, with a 90 % interval from the parameter covariance.</summary>
-public sealed record LimitForecast(double Limit, string LimitSource, DateTimeOffset? Date, DateTimeOffset? Low, DateTimeOffset? High, bool AlreadyReached,
-    bool BeyondHorizon, double FractionBeyondHorizon, DateTimeOffset Horizon, string Statement);
 
 /// <summary>The current fouling rate and whether it has jumped.</summary>
 public sealed record FoulingRate(double Rate, double Sigma, double? RecentRate, double? EarlierRate, bool Jump, string Statement);
 
+/// <param name="Draws">Joint draws of the current cycle's path (null: no fitted law, or withheld for a sensor fault).</param>
 public sealed record TrendResult(IReadOnlyList<DailyPoint> Daily, IReadOnlyList<FoulingCycle> Cycles, IReadOnlyList<CleaningEffect> Cleanings,
-    LimitForecast? Forecast, FoulingRate? Rate, string? ThresholdModelNote)
+    LimitForecast? Forecast, FoulingRate? Rate, string? ThresholdModelNote, JointDraws? Draws = null, string? Withheld = null)
 {
     /// <summary>The chosen model's Rf at a time, or NaN where no model fits.</summary>
     public double Fitted(DateTimeOffset t)
@@ -48,14 +46,13 @@ public static class TrendAnalysis
     public static readonly TimeSpan Horizon = TimeSpan.FromDays(3 * 365);
     public const double RateJumpFactor = 2.0;
     public const int RecentDays = 28;
-    public const int BootstrapDraws = 2000;
 
     public static readonly FoulingModel[] Models = [new LinearFouling(), new AsymptoticFouling(), new FallingRateFouling()];
 
     public const string ThresholdNote =
         "threshold (deposition minus removal, Ebert & Panchal 1995 family) model not fitted: it needs tube velocity or Reynolds number and film temperature, which the configuration does not give";
 
-    public static TrendResult Run(ExchangerHistory history)
+    public static TrendResult Run(ExchangerHistory history, IReadOnlyList<ShutdownWindow>? windows = null)
     {
         var x = history.Exchanger;
         var daily = DailyFouling.Resample(history.Samples);
@@ -82,9 +79,23 @@ public static class TrendAnalysis
         var effects = cleanings.Select(c => Effect(c, daily, cycles)).ToList();
         var current = cycles.Count > 0 ? cycles[^1] : null;
         var seed = StableSeed(x.Id);
-        var forecast = current is null ? null : Forecast(history, current, seed);
         var rate = current is null ? null : Rate(current);
-        return new TrendResult(daily, cycles, effects, forecast, rate, x.Threshold is null ? ThresholdNote : null);
+        var thresholdNote = x.Threshold is null ? ThresholdNote : null;
+        if (history.SensorCheck.LikelyFault)
+        {
+            var why = $"forecast and cleaning plan withheld: {history.SensorCheck.Statement}";
+            return new TrendResult(daily, cycles, effects, null, rate, thresholdNote, null, why);
+        }
+        var draws = current?.Chosen is null ? null : JointDraws.Draw(current.Candidates, SystematicSigma(current), seed);
+        var forecast = current is null || draws is null ? null : LimitForecasting.Forecast(history, current, draws, windows ?? []);
+        return new TrendResult(daily, cycles, effects, forecast, rate, thresholdNote, draws);
+    }
+
+    /// <summary>Systematic standard uncertainty of the cycle's Rf now: the median over its last 14 usable days.</summary>
+    public static double SystematicSigma(FoulingCycle cycle)
+    {
+        var v = cycle.Points.TakeLast(14).Select(p => p.SigmaSystematic).Where(double.IsFinite).Order().ToArray();
+        return v.Length == 0 ? 0 : DailyFouling.Median(v);
     }
 
     private static FoulingCycle FitCycle(DateTimeOffset start, DateTimeOffset end, bool known, CleaningSource? source, List<DailyPoint> daily, ExchangerHistory history)
@@ -110,15 +121,39 @@ public static class TrendAnalysis
             used = keep;
         }
         var chosen = candidates.Where(c => c.Fit is not null).MinBy(c => c.Aicc);
-        string? refusal = null;
-        var linearCandidate = candidates.FirstOrDefault(c => c.Model is LinearFouling);
-        var linear = linearCandidate?.Fit;
-        // Too flat: the slope is not significant (2 standard errors) and no curved law beats the line clearly (ΔAICc < 10).
-        if (linear is not null && Math.Abs(linear.Parameters[1]) < 2 * linear.StandardErrors[1]
-            && (chosen is null || linearCandidate!.Aicc - chosen.Aicc < 10))
-            refusal = FormattableString.Invariant($"too flat to fit a fouling law: no significant trend (slope {linear.Parameters[1]:G3} ± {linear.StandardErrors[1]:G2} m2K/W per day); Rf stays near {linear.Parameters[0] + linear.Parameters[1] * T(start, used[^1]) / 2:G3} m2K/W");
-        else if (chosen is null) refusal = "no model could be fitted";
+        var refusal = chosen is null ? "no model could be fitted" : Insignificance(chosen, start, used);
         return new FoulingCycle(start, end, known, source, used, candidates, refusal is null ? chosen : null, outliers, refusal);
+    }
+
+    /// <summary>Days after the data over which the implied growth is judged (a planning horizon).</summary>
+    public const double SignificanceLookAheadDays = 90;
+
+    /// <summary>Why the chosen law is not reported as fouling, or null when it is: the growth it implies from the first day
+    /// of the cycle to <see cref="SignificanceLookAheadDays"/> after the data must exceed twice its standard error (serial
+    /// correlation allowed for) and the systematic uncertainty of Rf.</summary>
+    /// <remarks>A slope can pass 2 SE on a clean exchanger when the errors are correlated or the data long; the growth
+    /// must also be larger than what a calibration error of the instruments or the clean reference could make of Rf.</remarks>
+    private static string? Insignificance(ModelCandidate chosen, DateTimeOffset start, List<DailyPoint> points)
+    {
+        var fit = chosen.Fit!;
+        var model = chosen.Model;
+        double t0 = T(start, points[0]), t1 = T(start, points[^1]) + SignificanceLookAheadDays;
+        var growth = model.Value(fit.Parameters, t1) - model.Value(fit.Parameters, t0);
+        var k = fit.Parameters.Length;
+        var g = new double[k];
+        Span<double> g0 = stackalloc double[k];
+        Span<double> g1 = stackalloc double[k];
+        model.Gradient(fit.Parameters, t0, g0);
+        model.Gradient(fit.Parameters, t1, g1);
+        for (var i = 0; i < k; i++) g[i] = g1[i] - g0[i];
+        var variance = 0.0;
+        for (var i = 0; i < k; i++)
+        for (var j = 0; j < k; j++) variance += g[i] * fit.Covariance[i, j] * g[j];
+        var se = Math.Sqrt(Math.Max(0, variance));
+        var systematic = DailyFouling.Median(points.Select(p => p.SigmaSystematic).Order().ToArray());
+        if (growth > 2 * se && growth > systematic) return null;
+        return FormattableString.Invariant(
+            $"no significant fouling: the {model.Key} law grows {growth:0.00e0} ± {se:0.0e0} m2K/W from the cycle start to {SignificanceLookAheadDays:0} days ahead, within twice its standard error or the systematic uncertainty of Rf ({systematic:0.0e0} m2K/W); Rf stays near {DailyFouling.Median(points.Select(p => p.FoulingResistance).Order().ToArray()):0.00e0} m2K/W");
     }
 
     private static double T(DateTimeOffset start, DailyPoint p) => (p.Day - start).TotalDays + 0.5;
@@ -132,16 +167,23 @@ public static class TrendAnalysis
         var list = new List<ModelCandidate>();
         foreach (var m in threshold is null ? Models : [.. Models, threshold])
         {
-            var fit = LeastSquares.Fit(m, t, y, w);
+            var fit = LeastSquares.FitWithSerialCorrelation(m, t, y, w);
             if (fit is null) { list.Add(new ModelCandidate(m, null, double.PositiveInfinity, double.NaN, "the fit did not converge")); continue; }
             var n = t.Length;
-            var k = m.ParameterNames.Length + 1; // + the residual variance
-            var aicc = n * Math.Log(fit.WeightedResidualSumOfSquares / n) + 2 * k + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1) : double.PositiveInfinity);
+            // AICc of the Gaussian likelihood with AR(1) errors: the whitened RSS plus the whitening's log-determinant;
+            // parameters: the law's, the residual variance and, when estimated, φ (Hurvich & Tsai, Biometrika 76 (1989) 297).
+            var k = m.ParameterNames.Length + 1 + (fit.Autocorrelation > 0 ? 1 : 0);
+            var aicc = n * Math.Log(fit.WeightedResidualSumOfSquares / n) + fit.LogDeterminantTerm + 2 * k
+                       + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1) : double.PositiveInfinity);
             var mean = y.Zip(w).Sum(p => p.First * p.Second) / w.Sum();
             var tss = y.Zip(w).Sum(p => p.Second * (p.First - mean) * (p.First - mean));
-            list.Add(new ModelCandidate(m, fit, aicc, tss > 0 ? 1 - fit.WeightedResidualSumOfSquares / tss : double.NaN, null));
+            var rss = t.Select((ti, i) => w[i] * Math.Pow(y[i] - m.Value(fit.Parameters, ti), 2)).Sum();
+            list.Add(new ModelCandidate(m, fit, aicc, tss > 0 ? 1 - rss / tss : double.NaN, null));
         }
-        return list;
+        var fitted = list.Where(c => c.Fit is not null && double.IsFinite(c.Aicc)).ToList();
+        if (fitted.Count == 0) return list;
+        var weights = JointDraws.AkaikeWeights(fitted.Select(c => c.Aicc).ToArray());
+        return list.Select(c => fitted.IndexOf(c) is var i and >= 0 ? c with { AkaikeWeight = weights[i] } : c).ToList();
     }
 
     private static CleaningEffect Effect(Cleaning c, List<DailyPoint> daily, List<FoulingCycle> cycles)
@@ -185,72 +227,6 @@ public static class TrendAnalysis
         }
         var what = x.Limits.MinimumDuty is not null ? "minimum duty" : "minimum cold outlet temperature";
         return (1 / hi - 1 / uc, $"{what} turned into an Rf limit at the median conditions of the last 30 days");
-    }
-
-    private static LimitForecast? Forecast(ExchangerHistory history, FoulingCycle cycle, int seed)
-    {
-        var f = ForecastCore(history, cycle, seed);
-        if (f is null) return null;
-        var lastData = history.Samples.Count > 0 ? history.Samples[^1].Timestamp : cycle.End;
-        var lastUsable = cycle.Points[^1].Day;
-        return (lastData - lastUsable).TotalDays > 7
-            ? f with { Statement = f.Statement + FormattableString.Invariant($"; note: the last usable day is {lastUsable:yyyy-MM-dd}, {(lastData - lastUsable).TotalDays:0} days before the end of the data — see the sample statuses and the sensor check") }
-            : f;
-    }
-
-    private static LimitForecast? ForecastCore(ExchangerHistory history, FoulingCycle cycle, int seed)
-    {
-        var limit = Limit(history);
-        if (limit is null || cycle.Chosen?.Fit is not { } fit) return null;
-        var (L, source) = limit.Value;
-        var model = cycle.Chosen.Model;
-        var now = cycle.Points[^1].Day + TimeSpan.FromDays(1);
-        var tNow = cycle.Days(now);
-        var horizon = now + Horizon;
-        var tHorizon = cycle.Days(horizon);
-        var central = model.CrossingTime(fit.Parameters, L);
-        var draws = Bootstrap(model, fit, L, seed);
-        var beyond = draws.Count(d => d > tHorizon) / (double)Math.Max(1, draws.Count);
-        var sorted = draws.Order().ToArray();
-        double Q(double q) => sorted.Length == 0 ? double.NaN : sorted[(int)Math.Clamp(Math.Round(q * (sorted.Length - 1)), 0, sorted.Length - 1)];
-        DateTimeOffset? At(double t) => double.IsFinite(t) && t <= tHorizon ? cycle.Start + TimeSpan.FromDays(t) : null;
-        var reached = central <= tNow;
-        var statement = reached
-            ? FormattableString.Invariant($"limit {L:G3} m2K/W already reached on about {cycle.Start + TimeSpan.FromDays(Math.Max(0, central)):yyyy-MM-dd} by the {model.Key} fit")
-            : central > tHorizon
-                ? FormattableString.Invariant($"limit {L:G3} m2K/W not reached within the {Horizon.TotalDays / 365:0}-year horizon ({model.Key} fit)")
-                : FormattableString.Invariant($"limit {L:G3} m2K/W reached on {At(central):yyyy-MM-dd} (90 % interval {(At(Q(IntervalLow)) is { } lo ? lo.ToString("yyyy-MM-dd") : "now")} to {(At(Q(IntervalHigh)) is { } hi ? hi.ToString("yyyy-MM-dd") : "beyond the horizon")}; {model.Key} fit)");
-        return new LimitForecast(L, source, At(central), At(Q(IntervalLow)), At(Q(IntervalHigh)), reached, central > tHorizon, beyond, horizon, statement);
-    }
-
-    /// <summary>Parametric bootstrap: crossing times for parameter vectors drawn from N(p̂, Cov), draws outside the model's domain redrawn.</summary>
-    /// <remarks>Parameter uncertainty only (the interval is for when the fitted law reaches the limit); 2000 draws, seeded per exchanger so results repeat.</remarks>
-    public static List<double> Bootstrap(FoulingModel model, FitResult fit, double limit, int seed) =>
-        ParameterDraws(model, fit, seed, BootstrapDraws).Select(p => model.CrossingTime(p, limit)).ToList();
-
-    /// <summary>Parameter vectors drawn from N(p̂, Cov) by its Cholesky factor (diagonal if not positive definite), outside the model's domain redrawn.</summary>
-    public static IEnumerable<double[]> ParameterDraws(FoulingModel model, FitResult fit, int seed, int count)
-    {
-        var k = fit.Parameters.Length;
-        Matrix<double> lower;
-        try { lower = fit.Covariance.Cholesky().Factor; }
-        catch (ArgumentException) { lower = Matrix<double>.Build.DenseDiagonal(k, k, i => fit.StandardErrors[i]); }
-        var rng = new Random(seed);
-        var z = new double[k];
-        var produced = 0;
-        for (var attempt = 0; produced < count && attempt < count * 20; attempt++)
-        {
-            for (var i = 0; i < k; i++) z[i] = Math.Sqrt(-2 * Math.Log(1 - rng.NextDouble())) * Math.Cos(2 * Math.PI * rng.NextDouble());
-            var p = new double[k];
-            for (var i = 0; i < k; i++)
-            {
-                p[i] = fit.Parameters[i];
-                for (var j = 0; j <= i; j++) p[i] += lower[i, j] * z[j];
-            }
-            if (double.IsNaN(model.CrossingTime(p, 1.0))) continue;
-            produced++;
-            yield return p;
-        }
     }
 
     private static FoulingRate? Rate(FoulingCycle cycle)

@@ -1,3 +1,4 @@
+using FoulingWatch.Analysis.Trends;
 using System.IO.Enumeration;
 using System.Security.Cryptography;
 using System.Text.Json;
@@ -184,7 +185,8 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         {
             var id = x.History.Exchanger.Id;
             var f = x.Trend.Forecast;
-            if (f is not null && (f.AlreadyReached || (f.Date is { } d && d - now <= settings.AlertHorizon)))
+            // The risk-aware date: the limit's P10 (one chance in ten it comes earlier), or a limit reached within uncertainty.
+            if (f is not null && (f.State is ForecastState.Reached or ForecastState.AtLimit || (f.P10 is { } d && d - now <= settings.AlertHorizon)))
                 list.Add((id, "limit", f.Statement));
             if (x.Trend.Rate?.Jump == true) list.Add((id, "rate-jump", x.Trend.Rate.Statement));
             if (x.History.SensorCheck.LikelyFault) list.Add((id, "sensor-fault", x.History.SensorCheck.Statement));

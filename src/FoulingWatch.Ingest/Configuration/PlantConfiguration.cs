@@ -102,9 +102,16 @@ public abstract record CleanReference(double TubeExponent, double ShellExponent)
 /// <param name="CleanU">Clean U at design flows, W/(m²·K), referred to the exchanger area.</param>
 /// <param name="TubeShare">Fraction of the clean film resistance (1/U − wall) on the tube side, 0–1.</param>
 /// <param name="WallResistance">Wall resistance referred to the area, m²·K/W.</param>
+/// <param name="RelativeUncertainty">Standard uncertainty of the datasheet clean U as a fraction of it (default 5 %).</param>
 public sealed record DatasheetCleanReference(
     double CleanU, double DesignTubeFlow, double DesignShellFlow, double TubeShare, double WallResistance,
-    double TubeExponent, double ShellExponent) : CleanReference(TubeExponent, ShellExponent);
+    double TubeExponent, double ShellExponent, double RelativeUncertainty = DatasheetCleanReference.DefaultUncertainty)
+    : CleanReference(TubeExponent, ShellExponent)
+{
+    /// <summary>Default standard uncertainty of a datasheet clean U: 5 % (from memory: film-coefficient correlations
+    /// behind a rating are quoted to ±10–20 % at about 95 %, and the clean U inherits a share of it).</summary>
+    public const double DefaultUncertainty = 0.05;
+}
 
 /// <summary>Clean U fitted (Wilson plot) from the first days of operation after a cleaning.</summary>
 /// <param name="Start">Start of the calibration period; null: the last logged cleaning, else the first data.</param>
@@ -124,8 +131,13 @@ public sealed record MaintenanceEvent(DateTimeOffset Date, string Action, string
 /// the deposition activation energy (J/mol) and how far the film temperature lies above the tube-side bulk mean (K).</summary>
 public sealed record ThresholdSettings(double ReynoldsAtDesign, double Prandtl, double ActivationEnergy, double FilmTemperatureRise);
 
-/// <summary>Cost of one cleaning (in the site currency) and its downtime.</summary>
-public sealed record CleaningSettings(double? Cost, TimeSpan? Downtime, double? DowntimeCostPerDay);
+/// <summary>Cost of one cleaning (in the site currency), its downtime, and what an unplanned stop at the limit adds.</summary>
+/// <param name="DowntimeCostPerDay">Money per day out of service; null: the exchanger's whole duty priced as lost.</param>
+/// <param name="UnplannedStopCost">Extra money of an unplanned stop beyond a planned cleaning; null: the cleaning cost again.</param>
+/// <param name="UnplannedDowntime">Downtime of an unplanned stop; null: the planned downtime.</param>
+/// <param name="LeadTime">Earliest a cleaning outside a window can be done from the end of the data; null: 14 days.</param>
+public sealed record CleaningSettings(double? Cost, TimeSpan? Downtime, double? DowntimeCostPerDay, double? UnplannedStopCost = null,
+    TimeSpan? UnplannedDowntime = null, TimeSpan? LeadTime = null);
 
 public sealed record ExchangerConfiguration(
     string Id,
@@ -167,7 +179,12 @@ public sealed record EconomicsSettings(
     double? HeaterEfficiency,
     double? Co2KilogramsPerJoule,
     double? Co2PricePerKilogram,
-    double? LostCoolingCostPerJoule);
+    double? LostCoolingCostPerJoule,
+    double DecisionConfidence = EconomicsSettings.DefaultDecisionConfidence)
+{
+    /// <summary>A recommendation right with a lower probability than this is labelled "uncertain" (default 80 %).</summary>
+    public const double DefaultDecisionConfidence = 0.8;
+}
 
 /// <summary>A planned shutdown window [Start, End) that can take up to Capacity cleanings.</summary>
 public sealed record ShutdownWindow(string Name, DateTimeOffset Start, DateTimeOffset End, int Capacity);

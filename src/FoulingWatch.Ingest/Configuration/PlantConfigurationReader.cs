@@ -240,8 +240,10 @@ public static class PlantConfigurationReader
         else if (fuelData is not null) co2 = fuelData.Co2KilogramsPerJoule;
         var co2Price = MoneyPerMass(n, "co2Price", currency) ?? inherited?.Co2PricePerKilogram;
         var lostCooling = MoneyPer(n, "lostCoolingCost", currency, Dimension.Energy) ?? inherited?.LostCoolingCostPerJoule;
+        var confidence = n.Fraction("decisionConfidence", min: 0.5, max: 0.99)
+                         ?? inherited?.DecisionConfidence ?? EconomicsSettings.DefaultDecisionConfidence;
         n.Done();
-        return new EconomicsSettings(currency, fuelData?.Key ?? fuel, fuelPrice, efficiency, co2, co2Price, lostCooling);
+        return new EconomicsSettings(currency, fuelData?.Key ?? fuel, fuelPrice, efficiency, co2, co2Price, lostCooling, confidence);
     }
 
     /// <summary>Reads "8.5 EUR/GJ": the amount and the unit after the slash, checking the currency; null after reporting the problem.</summary>
@@ -394,7 +396,10 @@ public static class PlantConfigurationReader
         var cleaning = new CleaningSettings(
             cleaningNode is null ? null : Money(cleaningNode, "cost", currency),
             cleaningNode?.Quantity("downtime", Dimension.Duration, minSi: 0) is { } dt ? TimeSpan.FromSeconds(dt) : null,
-            cleaningNode is null ? null : MoneyPerDay(cleaningNode, "downtimeCost", currency));
+            cleaningNode is null ? null : MoneyPerDay(cleaningNode, "downtimeCost", currency),
+            cleaningNode is null ? null : Money(cleaningNode, "unplannedStopCost", currency),
+            Duration(cleaningNode, "unplannedDowntime"),
+            Duration(cleaningNode, "leadTime"));
         cleaningNode?.Done();
         var maintenance = new List<MaintenanceEvent>();
         foreach (var (e, path) in n.Array("maintenance"))
@@ -416,6 +421,9 @@ public static class PlantConfigurationReader
         return new ExchangerConfiguration(id, service, n.Path, arrangement, area.Value, hot, cold, basis.Value, balance, downtime,
             clean, limits, cleaning, maintenance, exEconomics, threshold);
     }
+
+    private static TimeSpan? Duration(JsonNode? n, string key) =>
+        n?.Quantity(key, Dimension.Duration, minSi: 0, maxSi: 3650 * 86400.0) is { } seconds ? TimeSpan.FromSeconds(seconds) : null;
 
     private static ThresholdSettings? ReadThreshold(JsonNode? n)
     {
@@ -451,13 +459,15 @@ public static class PlantConfigurationReader
                 var u = n.Quantity("u", Dimension.HeatTransferCoefficient, required: true, minSi: 0, exclusiveMin: true);
                 var share = n.Fraction("tubeShare", min: 0.05, max: 0.95) ?? 0.5;
                 var wall = n.Quantity("wallResistance", Dimension.FoulingResistance, minSi: 0) ?? 0;
+                var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? DatasheetCleanReference.DefaultUncertainty;
                 var tube = hot?.Side == ExchangerSide.Tube ? hot : cold;
                 var shell = hot?.Side == ExchangerSide.Shell ? hot : cold;
                 if (tube?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the tube-side stream ({(tube == hot ? "hot" : "cold")}.designFlow).");
                 if (shell?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the shell-side stream ({(shell == hot ? "hot" : "cold")}.designFlow).");
                 if (u is not null && wall >= 1 / u.Value) n.Error("wallResistance", "is as large as the whole clean resistance 1/U; check the value.");
                 if (u is not null && tube?.DesignFlow is not null && shell?.DesignFlow is not null && wall < 1 / u.Value)
-                    result = new DatasheetCleanReference(u.Value, tube.DesignFlow.Value, shell.DesignFlow.Value, share, wall, tubeN, shellN);
+                    result = new DatasheetCleanReference(u.Value, tube.DesignFlow.Value, shell.DesignFlow.Value, share, wall, tubeN, shellN,
+                        uncertainty);
                 break;
             case "baseline":
                 var days = n.Quantity("duration", Dimension.Duration, minSi: 3600) ?? 14 * 86400.0;

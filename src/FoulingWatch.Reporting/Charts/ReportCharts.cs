@@ -103,14 +103,12 @@ public static class ReportCharts
             if (t1 > t0)
             {
                 var ts = Enumerable.Range(0, steps).Select(i => t0 + i * (t1 - t0) / (steps - 1)).ToArray();
-                var draws = TrendAnalysis.ParameterDraws(cycle.Chosen.Model, cf, TrendAnalysis.StableSeed(x.History.Exchanger.Id), 300).ToList();
                 var lo = new double[steps];
                 var hi = new double[steps];
                 for (var i = 0; i < steps; i++)
                 {
-                    var v = draws.Select(p => cycle.Chosen.Model.Value(p, ts[i])).Order().ToArray();
-                    lo[i] = v[(int)(0.05 * (v.Length - 1))] * scale;
-                    hi[i] = v[(int)(0.95 * (v.Length - 1))] * scale;
+                    lo[i] = (x.Trend.Draws?.ValueQuantile(ts[i], 0.05) ?? double.NaN) * scale;
+                    hi[i] = (x.Trend.Draws?.ValueQuantile(ts[i], 0.95) ?? double.NaN) * scale;
                 }
                 var xs = ts.Select(t => X(cycle.Start + TimeSpan.FromDays(t))).ToArray();
                 var fb = plot.Add.FillY(xs, lo, hi);

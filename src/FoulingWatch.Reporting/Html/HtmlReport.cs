@@ -49,16 +49,18 @@ public static class HtmlReport
         sb.Append("</section>\n");
 
         // The ranked plan.
-        sb.Append($"<section id=\"plan\"><h2>Cleaning plan</h2><p>{H(r.Plan.Method)}. Net saving is against not cleaning before the planning horizon; the interval reflects the uncertainty of the fouling forecast. Total saving of the plan: <strong>{N(r.Plan.TotalSaving)} {H(currency)}</strong>.</p>\n");
-        sb.Append("<table class=\"plan\" id=\"plan-table\"><thead><tr><th>rank</th><th>exchanger</th><th>window</th><th>starts</th><th class=\"n\">net saving</th><th class=\"n\">90 % interval</th><th class=\"n\">payback (days)</th><th class=\"n\">CO2 avoided (t)</th><th class=\"n\">fouling cost now (/day)</th><th>note</th></tr></thead><tbody>\n");
+        sb.Append($"<section id=\"plan\"><h2>Cleaning plan</h2><p>{H(r.Plan.Method)}. Net saving is the expected saving over three years against running the exchanger to its limit (or never cleaning where no limit applies); the interval and probabilities come from joint draws of the fouling law, its parameters and the systematic uncertainty of Rf. Total expected saving of the plan: <strong>{N(r.Plan.TotalSaving)} {H(currency)}</strong>.</p>\n");
+        sb.Append($"<table class=\"plan\" id=\"plan-table\"><thead><tr><th>rank</th><th>exchanger</th><th>action</th><th>date</th><th class=\"n\">net saving ({H(currency)})</th><th class=\"n\">90 % interval</th><th class=\"n\">P(saves)</th><th class=\"n\">P(best)</th><th class=\"n\">CO2 avoided (t)</th><th class=\"n\">fouling cost now (/day)</th><th>note</th></tr></thead><tbody>\n");
         foreach (var e in r.Plan.Entries)
         {
             var econ = r.Exchangers.First(x => x.History.Exchanger.Id == e.ExchangerId).Economics;
-            sb.Append($"<tr><td>{e.Rank}</td><td><a href=\"#x-{ResultWriter.SafeName(e.ExchangerId)}\">{H(e.ExchangerId)}</a></td><td>{H(e.Window?.Name ?? "—")}</td><td>{D(e.Window?.Start)}</td>");
+            var action = e.Option is null ? "—" : e.Option.Kind == "window" ? e.Option.Label : e.Option.Kind;
+            sb.Append($"<tr><td>{e.Rank}</td><td><a href=\"#x-{ResultWriter.SafeName(e.ExchangerId)}\">{H(e.ExchangerId)}</a></td><td>{H(action)}</td><td>{D(e.Option?.Date)}</td>");
             sb.Append(e.Option is { } o
-                ? $"<td class=\"n\">{N(o.Saving)}</td><td class=\"n\">{N(o.SavingLow)} … {N(o.SavingHigh)}</td><td class=\"n\">{N(o.PaybackDays)}</td><td class=\"n\">{N(o.Co2Avoided / 1000)}</td>"
-                : "<td class=\"n\">—</td><td class=\"n\">—</td><td class=\"n\">—</td><td class=\"n\">—</td>");
-            sb.Append($"<td class=\"n\">{N(econ.CostPerDayNow)}</td><td>{H(e.Note)}</td></tr>\n");
+                ? $"<td class=\"n\">{N(o.Saving)}</td><td class=\"n\">{N(o.SavingLow)} … {N(o.SavingHigh)}</td><td class=\"n\">{N(o.ProbabilitySaving * 100)} %</td><td class=\"n\">{N(e.ProbabilityBest * 100)} %</td><td class=\"n\">{N(o.Co2Avoided / 1000)}</td>"
+                : "<td class=\"n\">—</td><td class=\"n\">—</td><td class=\"n\">—</td><td class=\"n\">—</td><td class=\"n\">—</td>");
+            var note = string.Join(" ", new[] { e.Warning, e.Note }.Where(t => !string.IsNullOrEmpty(t)));
+            sb.Append($"<td class=\"n\">{N(econ.CostPerDayNow)}</td><td{(e.Warning is null ? "" : " class=\"warn\"")}>{H(note)}</td></tr>\n");
         }
         sb.Append("</tbody></table>\n");
         foreach (var c in siteCharts.Where(c => c.Name == "site-plan-timeline")) sb.Append(Figure(c));

@@ -8,8 +8,9 @@ public static class PlanWriter
 {
     public static readonly string[] Columns =
     [
-        "rank", "exchanger", "service", "window", "window_start", "window_end", "net_saving", "net_saving_90_low", "net_saving_90_high",
-        "fouling_cost_until_window", "payback_days", "co2_avoided_t", "cost_per_day_now", "currency", "note",
+        "rank", "exchanger", "service", "action", "window", "date", "net_saving", "net_saving_90_low", "net_saving_90_high",
+        "probability_saving", "probability_best", "payback_days", "energy_avoided_GJ", "co2_avoided_t", "probability_unplanned_stop",
+        "cost_per_day_now", "currency", "warning", "note",
     ];
 
     public static void Write(string path, PlantResult r)
@@ -23,11 +24,13 @@ public static class PlanWriter
             var econ = r.Exchangers.First(x => x.History.Exchanger.Id == p.ExchangerId).Economics;
             string[] cells =
             [
-                p.Rank.ToString(System.Globalization.CultureInfo.InvariantCulture), Quote(p.ExchangerId), Quote(p.Service), Quote(p.Window?.Name),
-                D(p.Window?.Start), D(p.Window?.End),
+                p.Rank.ToString(System.Globalization.CultureInfo.InvariantCulture), Quote(p.ExchangerId), Quote(p.Service), Quote(p.Option?.Kind),
+                Quote(p.Window?.Name), D(p.Option?.Date),
                 NumberText.Csv(p.Option?.Saving ?? double.NaN), NumberText.Csv(p.Option?.SavingLow ?? double.NaN), NumberText.Csv(p.Option?.SavingHigh ?? double.NaN),
-                NumberText.Csv(p.Option?.FoulingCostUntil ?? double.NaN), NumberText.Csv(p.Option?.PaybackDays ?? double.NaN),
-                NumberText.Csv((p.Option?.Co2Avoided ?? double.NaN) / 1000), NumberText.Csv(econ.CostPerDayNow), r.Configuration.Economics.Currency, Quote(p.Note),
+                NumberText.Csv(p.Option?.ProbabilitySaving ?? double.NaN), NumberText.Csv(p.ProbabilityBest),
+                NumberText.Csv(p.Option?.PaybackDays ?? double.NaN), NumberText.Csv((p.Option?.EnergyAvoided ?? double.NaN) / 1e9),
+                NumberText.Csv((p.Option?.Co2Avoided ?? double.NaN) / 1000), NumberText.Csv(p.Option?.ProbabilityUnplannedStop ?? double.NaN),
+                NumberText.Csv(econ.CostPerDayNow), r.Configuration.Economics.Currency, Quote(p.Warning), Quote(p.Note),
             ];
             sb.AppendJoin(',', cells).Append('\n');
         }

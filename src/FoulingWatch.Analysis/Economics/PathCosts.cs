@@ -1,0 +1,69 @@
+namespace FoulingWatch.Analysis.Economics;
+
+/// <summary>Cumulative fouling cost and fouling energy of one fouling path on a daily grid of cycle age, and the
+/// long-run average cost of cleaning it periodically.</summary>
+/// <remarks>
+/// Renewal-reward: cleaning every T days (downtime τ, cost K per cleaning) costs on average Φ(T) = (K + C(T))/(T + τ) per
+/// day, C the cumulative fouling cost of a cycle (Ross, Applied Probability Models with Optimization Applications, 1970,
+/// ch. 5; for cleaning schedules e.g. Ishiyama, Paterson &amp; Wilson, Chem. Eng. Sci. 66 (2011) 604; from memory). The
+/// optimum is searched on whole days over [1, min(limit crossing, grid end)]: the limit caps the cycle.
+/// </remarks>
+public sealed class PathCosts
+{
+    private readonly double[] _cost;   // currency, cumulative from age 0, per whole day of age
+    private readonly double[] _energy; // J of lost duty, cumulative
+
+    public PathCosts(Func<double, double> trueRf, Func<double, double> lostDutyOfRf, double moneyPerJoule, int days)
+    {
+        _cost = new double[days + 1];
+        _energy = new double[days + 1];
+        var previous = Math.Max(0, lostDutyOfRf(Math.Max(0, trueRf(0))));
+        for (var a = 1; a <= days; a++)
+        {
+            var q = Math.Max(0, lostDutyOfRf(Math.Max(0, trueRf(a))));
+            var e = 0.5 * (previous + q) * 86400;
+            _energy[a] = _energy[a - 1] + e;
+            _cost[a] = _cost[a - 1] + e * moneyPerJoule;
+            previous = q;
+        }
+    }
+
+    public int Days => _cost.Length - 1;
+
+    /// <summary>Cumulative fouling cost from age 0 to age a (days), linear between whole days; held beyond the grid's end
+    /// at the last day's rate.</summary>
+    public double Cost(double a) => Interpolate(_cost, a);
+
+    public double Energy(double a) => Interpolate(_energy, a);
+
+    /// <summary>Cost rate per day at age a.</summary>
+    public double Rate(double a)
+    {
+        var i = Math.Clamp((int)a, 0, _cost.Length - 2);
+        return _cost[i + 1] - _cost[i];
+    }
+
+    private static double Interpolate(double[] c, double a)
+    {
+        if (a <= 0) return 0;
+        var last = c.Length - 1;
+        if (a >= last) return c[last] + (c[last] - c[last - 1]) * (a - last);
+        var i = (int)a;
+        return c[i] + (c[i + 1] - c[i]) * (a - i);
+    }
+
+    /// <summary>The cycle length T* (days) minimising (K + C(T))/(T + τ) over [1, maxDays], Φ* per day and the fouling
+    /// energy per day of that policy; AtEdge when T* is the end of the range (no interior optimum).</summary>
+    public (int Days, double Rate, double EnergyRate, bool AtEdge) Optimum(double cleaningCost, double downtimeDays, int maxDays)
+    {
+        maxDays = Math.Clamp(maxDays, 1, Days);
+        var best = 1;
+        var bestRate = double.PositiveInfinity;
+        for (var t = 1; t <= maxDays; t++)
+        {
+            var rate = (cleaningCost + _cost[t]) / (t + downtimeDays);
+            if (rate < bestRate) { bestRate = rate; best = t; }
+        }
+        return (best, bestRate, _energy[best] / (best + downtimeDays), best == maxDays);
+    }
+}
