@@ -14,7 +14,7 @@ public static class TimeSeriesWriter
 
     public static readonly string[] ExtraColumns =
     [
-        "rf_fit_m2K_per_W", "balance_mismatch", "lmtd_K", "f_correction", "duty_clean_W", "hot_outlet_clean_K", "cold_outlet_clean_K",
+        "rf_sigma_systematic_m2K_per_W", "rf_sigma_random_m2K_per_W", "rf_fit_m2K_per_W", "balance_mismatch", "lmtd_K", "f_correction", "duty_clean_W", "hot_outlet_clean_K", "cold_outlet_clean_K",
         "hot_flow_kg_per_s", "hot_inlet_K", "hot_outlet_K", "cold_flow_kg_per_s", "cold_inlet_K", "cold_outlet_K",
         "fouling_cost_per_day", "recon_global_test", "recon_gross_error", "recon_z_hot_flow", "recon_z_hot_inlet", "recon_z_hot_outlet",
         "recon_z_cold_flow", "recon_z_cold_inlet", "recon_z_cold_outlet", "detail",
@@ -36,6 +36,7 @@ public static class TimeSeriesWriter
                 NumberText.Utc(s.Timestamp), s.Status.Key(), NumberText.Csv(e.Duty), NumberText.Csv(e.DutyHot), NumberText.Csv(e.DutyCold),
                 NumberText.Csv(e.UActual), NumberText.Csv(e.UClean), NumberText.Csv(e.FoulingResistance), NumberText.Csv(s.FoulingResistanceSigma),
                 NumberText.Csv(e.Cleanliness), NumberText.Csv(e.LostDuty),
+                NumberText.Csv(s.SigmaSystematic), NumberText.Csv(s.SigmaRandom),
                 NumberText.Csv(fitted is null ? double.NaN : fitted[k]), NumberText.Csv(e.BalanceMismatch), NumberText.Csv(e.Lmtd), NumberText.Csv(e.CorrectionFactor),
                 NumberText.Csv(e.DutyClean), NumberText.Csv(e.HotOutletClean), NumberText.Csv(e.ColdOutletClean),
                 .. m.Select(NumberText.Csv),
