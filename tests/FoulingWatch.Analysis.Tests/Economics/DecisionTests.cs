@@ -84,7 +84,8 @@ public class DecisionTests
 
     // Synthetic: linear fouling reaches the limit about 25 days after the data, a shutdown window opens 100 days after the
     // data. No plan entry may put the cleaning after the limit's P10 date without the unplanned-stop warning, over 20
-    // seeds, and the window after the limit is never the plan.
+    // seeds, and the window after the limit is never the plan. Property: the fouling energy an option avoids is at most
+    // the fouling energy of the reference path it avoids.
     [Fact]
     public void A_limit_before_the_window_gives_an_unplanned_stop_or_an_earlier_cleaning()
     {
@@ -102,6 +103,8 @@ public class DecisionTests
             if (entry.Option!.Date > p10 || entry.Option.Kind == "at-limit")
                 Assert.Contains("UNPLANNED STOP", entry.Warning ?? "");
             Assert.NotEqual("window", entry.Option.Kind);
+            Assert.All(economics.Options, o => Assert.True(o.EnergyAvoided <= economics.Decision!.ReferenceEnergy,
+                $"{o.Kind} avoids {o.EnergyAvoided:E3} J of {economics.Decision!.ReferenceEnergy:E3} J"));
         }
     }
 }
