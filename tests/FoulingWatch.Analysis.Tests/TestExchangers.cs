@@ -11,40 +11,29 @@ public static class TestExchangers
     public static (ExchangerConfiguration Exchanger, PlantConfiguration Plant) Plant(int windowStartDay)
     {
         var start = Start.AddDays(windowStartDay);
-        var json = $$"""
-            {
-              "site": { "name": "Heron Point (fictional)", "timeZone": "UTC" },
-              "economics": { "currency": "EUR", "fuel": "natural-gas", "fuelPrice": "10 EUR/GJ", "heaterEfficiency": "85 %", "co2Price": "80 EUR/t" },
-              "shutdownWindows": [ { "name": "spring stop", "start": "{{start:yyyy-MM-dd}}", "end": "{{start.AddDays(10):yyyy-MM-dd}}", "capacity": 1 } ],
-              "data": { "interval": "1 h", "sources": [ { "files": ["*.none"] } ] },
-              "exchangers": [ {
-                "id": "X-1", "arrangement": "counterflow", "area": "120 m2",
-                "hot":  { "side": "shell", "fluid": { "model": "constant-cp", "cp": "2300 J/kgK" }, "flow": { "tag": "FH", "unit": "kg/s" },
-                          "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" }, "designFlow": "25 kg/s" },
-                "cold": { "side": "tube", "fluid": { "model": "constant-cp", "cp": "4100 J/kgK" }, "flow": { "tag": "FC", "unit": "kg/s" },
-                          "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "30 kg/s" },
-                "clean": { "method": "datasheet", "u": "500 W/m2K" },
-                "limits": { "foulingResistance": "0.0008 m2K/W" },
-                "cleaning": { "cost": "30000 EUR", "downtime": "3 d" },
-                "maintenance": [ { "date": "2026-01-01T00:00:00Z", "action": "cleaned" } ]
-              } ]
-            }
-            """;
-        var dir = Path.Combine(Path.GetTempPath(), "fw-x", Guid.NewGuid().ToString("N"));
-        Directory.CreateDirectory(dir);
-        File.WriteAllText(Path.Combine(dir, "x.none"), "");
-        File.WriteAllText(Path.Combine(dir, "plant.json"), json);
-        var plant = PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"));
+        var plant = PlantOf(maintenance: "[ { \"date\": \"2026-01-01T00:00:00Z\", \"action\": \"cleaned\" } ]",
+            extra: ", \"cleaning\": { \"cost\": \"30000 EUR\", \"downtime\": \"3 d\" }",
+            top: """
+                 "economics": { "currency": "EUR", "fuel": "natural-gas", "fuelPrice": "10 EUR/GJ", "heaterEfficiency": "85 %", "co2Price": "80 EUR/t" },
+                 """ + $"\"shutdownWindows\": [ {{ \"name\": \"spring stop\", \"start\": \"{start:yyyy-MM-dd}\", " +
+                 $"\"end\": \"{start.AddDays(10):yyyy-MM-dd}\", \"capacity\": 1 }} ],");
         return (plant.Exchangers[0], plant);
     }
 
     public static ExchangerConfiguration Simple(string maintenance = "[]", string limits = "{ \"foulingResistance\": \"0.0008 m2K/W\" }", string id = "X-1",
         string arrangement = "\"counterflow\"", string area = "120 m2", string hotFluid = "{ \"model\": \"constant-cp\", \"cp\": \"2300 J/kgK\" }",
-        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "", string extra = "")
+        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "", string extra = "") =>
+        PlantOf(maintenance, limits, id, arrangement, area, hotFluid, coldFluid, basis, hotPressure, extra).Exchangers[0];
+
+    /// <summary>The plant around <see cref="Simple"/>; <paramref name="top"/> adds top-level keys (each ending in a comma).</summary>
+    public static PlantConfiguration PlantOf(string maintenance = "[]", string limits = "{ \"foulingResistance\": \"0.0008 m2K/W\" }", string id = "X-1",
+        string arrangement = "\"counterflow\"", string area = "120 m2", string hotFluid = "{ \"model\": \"constant-cp\", \"cp\": \"2300 J/kgK\" }",
+        string coldFluid = "{ \"model\": \"constant-cp\", \"cp\": \"4100 J/kgK\" }", string basis = "mean", string hotPressure = "", string extra = "",
+        string top = "")
     {
         var json = $$"""
             {
-              "site": { "name": "Heron Point (fictional)" },
+              "site": { "name": "Heron Point (fictional)" }, {{top}}
               "data": { "interval": "1 h", "sources": [ { "files": ["*.none"] } ] },
               "exchangers": [ {
                 "id": "{{id}}", "arrangement": {{arrangement}}, "area": "{{area}}", "dutyBasis": "{{basis}}",
@@ -62,7 +51,7 @@ public static class TestExchangers
         Directory.CreateDirectory(dir);
         File.WriteAllText(Path.Combine(dir, "x.none"), "");
         File.WriteAllText(Path.Combine(dir, "plant.json"), json);
-        return PlantConfigurationReader.Load(Path.Combine(dir, "plant.json")).Exchangers[0];
+        return PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"));
     }
 
     public static readonly DateTimeOffset Start = new(2026, 1, 1, 0, 0, 0, TimeSpan.Zero);

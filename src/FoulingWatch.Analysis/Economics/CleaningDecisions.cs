@@ -85,9 +85,9 @@ public static class CleaningDecisions
 
         var central = CentralPath(cycle, lostDuty, pricing, gridDays);
         var centralCrossing = limit is { } cl ? cycle.Chosen!.Model.CrossingTime(cycle.Chosen.Fit!.Parameters, cl) : double.PositiveInfinity;
-        var optimum = central.Optimum(planned, tau, MaxCycle(centralCrossing, gridDays));
-        var capped = double.IsFinite(centralCrossing) && optimum.Days >= MaxCycle(centralCrossing, gridDays);
-        double? optimalDays = optimum.AtEdge && !capped ? null : optimum.Days;
+        var centralCap = MaxCycle(centralCrossing, gridDays);
+        var optimum = central.Optimum(planned, tau, centralCap);
+        double? optimalDays = optimum.AtEdge && centralCap >= gridDays ? null : optimum.Days;
 
         var options = new List<DecisionOption>();
         for (var i = 0; i < specs.Count; i++)
@@ -127,8 +127,8 @@ public static class CleaningDecisions
             rfRate, pricing.Currency, Enumerable.Range(0, n).Average(j => energies[reference, j]));
     }
 
-    private static int MaxCycle(double crossing, int gridDays) =>
-        double.IsFinite(crossing) ? Math.Clamp((int)Math.Floor(crossing), 1, gridDays) : gridDays;
+    private static double MaxCycle(double crossing, int gridDays) =>
+        double.IsFinite(crossing) ? Math.Clamp(crossing, 1, gridDays) : gridDays;
 
     /// <summary>Cost and fouling energy over the horizon of cleaning d days from now, when the limit is dL days away.</summary>
     private static (double Cost, double Energy, bool Unplanned) Price(double d, double dL, PathCosts path, double tNow, double horizon,

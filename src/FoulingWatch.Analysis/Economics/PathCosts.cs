@@ -6,7 +6,7 @@ namespace FoulingWatch.Analysis.Economics;
 /// Renewal-reward: cleaning every T days (downtime τ, cost K per cleaning) costs on average Φ(T) = (K + C(T))/(T + τ) per
 /// day, C the cumulative fouling cost of a cycle (Ross, Applied Probability Models with Optimization Applications, 1970,
 /// ch. 5; for cleaning schedules e.g. Ishiyama, Paterson &amp; Wilson, Chem. Eng. Sci. 66 (2011) 604; from memory). The
-/// optimum is searched on whole days over [1, min(limit crossing, grid end)]: the limit caps the cycle.
+/// optimum is searched over [1, min(limit crossing, grid end)] days: the limit caps the cycle.
 /// </remarks>
 public sealed class PathCosts
 {
@@ -54,16 +54,12 @@ public sealed class PathCosts
 
     /// <summary>The cycle length T* (days) minimising (K + C(T))/(T + τ) over [1, maxDays], Φ* per day and the fouling
     /// energy per day of that policy; AtEdge when T* is the end of the range (no interior optimum).</summary>
-    public (int Days, double Rate, double EnergyRate, bool AtEdge) Optimum(double cleaningCost, double downtimeDays, int maxDays)
+    /// <remarks>The search is <see cref="CleaningInterval.NumericOptimum"/>, checked there against the closed form.</remarks>
+    public (double Days, double Rate, double EnergyRate, bool AtEdge) Optimum(double cleaningCost, double downtimeDays, double maxDays)
     {
         maxDays = Math.Clamp(maxDays, 1, Days);
-        var best = 1;
-        var bestRate = double.PositiveInfinity;
-        for (var t = 1; t <= maxDays; t++)
-        {
-            var rate = (cleaningCost + _cost[t]) / (t + downtimeDays);
-            if (rate < bestRate) { bestRate = rate; best = t; }
-        }
-        return (best, bestRate, _energy[best] / (best + downtimeDays), best == maxDays);
+        if (maxDays <= 1) return (1, (cleaningCost + Cost(1)) / (1 + downtimeDays), Energy(1) / (1 + downtimeDays), true);
+        var (t, rate) = CleaningInterval.NumericOptimum(cleaningCost, downtimeDays, Cost, 1, maxDays);
+        return (t, rate, Energy(t) / (t + downtimeDays), t > maxDays - 0.5);
     }
 }
