@@ -10,7 +10,9 @@ public sealed record Cleaning(DateTimeOffset Date, CleaningSource Source, double
 /// <remarks>
 /// Rule (documented, common practice for step detection on noisy series): for each day, compare the medians of the
 /// five usable days before and after it (gaps such as a downtime are skipped, so a fall across a shutdown counts);
-/// a fall is a cleaning when it exceeds 4 combined standard errors, 30 % of the level before, and 5e-5 m²·K/W; the day
+/// a fall is a cleaning when it exceeds 4 combined standard errors (the larger of the days' own and the robust spread
+/// 1.4826·MAD of all windowed falls, which carries the process's day-to-day wander), 30 % of the level before, and
+/// 5e-5 m²·K/W; the day
 /// of the largest fall in a ±7-day neighbourhood is taken. Falls within 7 days of a logged cleaning belong to it; a
 /// maintenance entry "not-cleaned" within 3 days suppresses a detection.
 /// </remarks>
@@ -21,7 +23,7 @@ public static class CleaningDetection
 
     public static List<Cleaning> Detect(IReadOnlyList<DailyPoint> days, IReadOnlyList<DateTimeOffset> logged, IReadOnlyList<DateTimeOffset> suppressed)
     {
-        var candidates = new List<(int Index, double Drop, double Sigma, double Before, double After)>();
+        var windows = new List<(int Index, double Drop, double Sigma, double Before, double After)>();
         for (var i = Window; i + Window <= days.Count; i++)
         {
             var before = days.Skip(i - Window).Take(Window).ToList();
@@ -30,11 +32,15 @@ public static class CleaningDetection
             var a = DailyFouling.Median(after.Select(d => d.FoulingResistance).Order().ToArray());
             var sb = Math.Sqrt(Math.PI / 2) * Math.Sqrt(before.Average(d => d.Sigma * d.Sigma) / Window);
             var sa = Math.Sqrt(Math.PI / 2) * Math.Sqrt(after.Average(d => d.Sigma * d.Sigma) / Window);
-            var drop = b - a;
-            var sigma = Math.Sqrt(sa * sa + sb * sb);
-            if (drop > SigmaFactor * sigma && drop > RelativeDrop * Math.Abs(b) && drop > MinimumDrop)
-                candidates.Add((i, drop, sigma, b, a));
+            windows.Add((i, b - a, Math.Sqrt(sa * sa + sb * sb), b, a));
         }
+        // The day-to-day wander of a process (serially correlated, larger than the scatter within a day) moves the windowed
+        // medians too: the robust spread of all the windowed falls is the empirical null, and cleanings are its outliers.
+        var falls = windows.Select(w => w.Drop).Order().ToArray();
+        var centre = DailyFouling.Median(falls);
+        var wander = falls.Length == 0 ? 0 : 1.4826 * DailyFouling.Median(falls.Select(f => Math.Abs(f - centre)).Order().ToArray());
+        var candidates = windows.Select(w => w with { Sigma = Math.Max(w.Sigma, wander) })
+            .Where(w => w.Drop > SigmaFactor * w.Sigma && w.Drop > RelativeDrop * Math.Abs(w.Before) && w.Drop > MinimumDrop).ToList();
         var result = new List<Cleaning>();
         foreach (var c in candidates)
         {

@@ -117,10 +117,12 @@ public sealed class FallingRateFouling : FoulingModel
 
 /// <summary>A least-squares fit of a model: parameters, covariance s²(JᵀWJ)⁻¹, weighted residual sum of squares.</summary>
 /// <param name="Autocorrelation">φ, the AR(1) coefficient of the standardised residuals per day (0: independent errors);
-/// with φ &gt; 0 the residual sum of squares and covariance are those of the whitened (Prais–Winsten) problem.</param>
-/// <param name="LogDeterminantTerm">Σ ln(1 − φ^(2Δtᵢ)), the whitening's contribution to −2 ln L (0 for φ = 0).</param>
+/// with φ &gt; 0 the residual sum of squares and covariance are those of the whitened problem (see <see cref="Whitening"/>).</param>
+/// <param name="LogDeterminantTerm">ln det Σ of the standardised errors' correlation matrix, the whitening's contribution to
+/// −2 ln L (0 for φ = 0).</param>
+/// <param name="AutocorrelatedShare">c, the AR(1) part's share of the error variance (the rest white noise).</param>
 public sealed record FitResult(double[] Parameters, double[] StandardErrors, Matrix<double> Covariance, double WeightedResidualSumOfSquares,
-    int Observations, double Autocorrelation = 0, double LogDeterminantTerm = 0)
+    int Observations, double Autocorrelation = 0, double LogDeterminantTerm = 0, double AutocorrelatedShare = 1)
 {
     public int DegreesOfFreedom => Observations - Parameters.Length;
     public double ResidualStandardDeviation => Math.Sqrt(WeightedResidualSumOfSquares / Math.Max(1, DegreesOfFreedom));
@@ -214,6 +216,6 @@ public static partial class LeastSquares
         if (!inverse.Enumerate().All(double.IsFinite)) return null;
         var cov = inverse * (rss / (n - k));
         var se = Enumerable.Range(0, k).Select(i => Math.Sqrt(Math.Max(0, cov[i, i]))).ToArray();
-        return new FitResult(p, se, cov, rss, n, whitening.Phi, whitening.LogDeterminantTerm);
+        return new FitResult(p, se, cov, rss, n, whitening.Phi, whitening.LogDeterminantTerm, whitening.Share);
     }
 }

@@ -2,52 +2,73 @@ using MathNet.Numerics.LinearAlgebra;
 
 namespace FoulingWatch.Analysis.Trends;
 
-/// <summary>The Prais–Winsten transformation for AR(1) errors sampled at irregular times: it turns serially correlated
-/// residuals into independent ones, so that least squares on the transformed problem is generalised least squares.</summary>
+/// <summary>Turns serially correlated residuals into independent ones, so that least squares on the transformed problem is
+/// generalised least squares: errors are a first-order autoregression (process wander) plus white noise (measurement
+/// scatter), sampled at irregular times.</summary>
 /// <remarks>
-/// Errors e(t) follow a first-order autoregression in continuous time (an Ornstein–Uhlenbeck process), so two points Δt days
-/// apart correlate as φ^Δt. With a = √w·e (standardised), z₀ = a₀ and zᵢ = (aᵢ − φ^Δtᵢ·aᵢ₋₁)/√(1 − φ^(2Δtᵢ)) are
-/// independent with equal variance. Source: Prais &amp; Winsten (1954), Cowles Commission Discussion Paper 383; the
-/// equivalence with GLS under Σᵢⱼ = φ^|tᵢ − tⱼ| is the textbook result (e.g. Greene, Econometric Analysis, ch. 20;
-/// from memory) and is checked in the tests against the explicit GLS solution.
+/// Standardised errors a = √w·e have correlation c·φ^|Δt| between points Δt days apart (c ≤ 1 the share of the AR(1)
+/// part; 1 − c white noise). The whitened values are the Kalman filter's standardised innovations for the state-space form
+/// x_i = φ^Δt·x_{i−1} + η, a_i = x_i + ε (Harvey, Forecasting, Structural Time Series Models and the Kalman Filter, 1989,
+/// §3.4; from memory); the filter's gains do not depend on the data, so they are computed once. With c = 1 this is exactly
+/// the Prais–Winsten transformation (Prais &amp; Winsten 1954, Cowles Commission Discussion Paper 383):
+/// z₀ = a₀, zᵢ = (aᵢ − φ^Δtᵢ·aᵢ₋₁)/√(1 − φ^(2Δtᵢ)). Checked in the tests against a reference GLS implementation and the
+/// identity LᵀL = Σ⁻¹. AR(1) plus white noise is an ARMA(1,1) process: a plain AR(1) fitted to it sees a lag-one
+/// correlation c·φ and so forgets the slow wander that widens a trend's uncertainty.
 /// </remarks>
 public sealed class Whitening
 {
     public static Whitening None { get; } = new([], 0);
 
-    private readonly double[] _t;
+    private readonly double[] _decay;  // φ^Δt to the previous point
+    private readonly double[] _scale;  // 1/√S, S the innovation variance
+    private readonly double[] _gain;   // Kalman gain K = P/S
 
-    public Whitening(double[] t, double phi)
+    public Whitening(double[] t, double phi, double share = 1)
     {
-        _t = t;
         Phi = phi;
-        for (var i = 1; i < t.Length && phi > 0; i++) LogDeterminantTerm += Math.Log(1 - Math.Pow(phi, 2 * (t[i] - t[i - 1])));
+        Share = share;
+        var n = t.Length;
+        _decay = new double[n];
+        _scale = new double[n];
+        _gain = new double[n];
+        if (phi == 0) return;
+        var posterior = 0.0;
+        for (var i = 0; i < n; i++)
+        {
+            var r = i == 0 ? 0 : Math.Pow(phi, t[i] - t[i - 1]);
+            var prior = i == 0 ? share : r * r * posterior + share * (1 - r * r);
+            var s = prior + (1 - share);
+            _decay[i] = r;
+            _scale[i] = 1 / Math.Sqrt(s);
+            _gain[i] = prior / s;
+            posterior = prior * (1 - share) / s;
+            LogDeterminantTerm += Math.Log(s);
+        }
     }
 
-    /// <summary>φ, the correlation of errors one day apart.</summary>
+    /// <summary>φ, the correlation of the AR(1) part one day apart.</summary>
     public double Phi { get; }
 
-    /// <summary>Σ ln(1 − φ^(2Δtᵢ)) = −2·ln|det L| of the transformation L.</summary>
+    /// <summary>c, the AR(1) part's share of the standardised error variance (1: no white noise).</summary>
+    public double Share { get; }
+
+    /// <summary>ln det Σ = Σ ln Sᵢ of the standardised errors' correlation matrix (0 for independent errors).</summary>
     public double LogDeterminantTerm { get; }
 
     public bool IsNone => Phi == 0;
 
-    /// <summary>L·√W·v; with φ = 0 the vector itself (the weights are then applied by the caller).</summary>
+    /// <summary>L⁻¹·√W·v (LLᵀ = Σ); with φ = 0 the vector itself (the weights are then applied by the caller).</summary>
     public double[] Apply(double[] v, double[] weights)
     {
         if (IsNone) return v;
         var z = new double[v.Length];
-        var previous = 0.0;
+        var state = 0.0;
         for (var i = 0; i < v.Length; i++)
         {
-            var a = Math.Sqrt(weights[i]) * v[i];
-            if (i == 0) z[i] = a;
-            else
-            {
-                var r = Math.Pow(Phi, _t[i] - _t[i - 1]);
-                z[i] = (a - r * previous) / Math.Sqrt(1 - r * r);
-            }
-            previous = a;
+            var predicted = _decay[i] * state;
+            var innovation = Math.Sqrt(weights[i]) * v[i] - predicted;
+            z[i] = innovation * _scale[i];
+            state = predicted + _gain[i] * innovation;
         }
         return z;
     }
@@ -64,40 +85,69 @@ public sealed class Whitening
         return result;
     }
 
-    /// <summary>φ estimated from standardised residuals: the lag-one regression over pairs at most 1.5 days apart, clamped
-    /// to [0, 0.98]; 0 with fewer than five pairs.</summary>
-    public static double EstimatePhi(double[] t, double[] residual, double[] weights)
+    /// <summary>(φ, c) from standardised residuals: the autocorrelations ρ_k at lags of k = 1…4 days (pairs within a quarter
+    /// day of the lag) follow ρ_k = c·φ^k, so ln ρ_k against k gives ln φ (slope) and ln c (intercept) over the leading
+    /// positive lags; with only ρ₁ positive, φ = ρ₁ and c = 1. φ is clamped to [0, 0.98], c to (0, 1]; (0, 1) with fewer
+    /// than five pairs at lag one.</summary>
+    public static (double Phi, double Share) Estimate(double[] t, double[] residual, double[] weights)
     {
-        double num = 0, den = 0;
-        var pairs = 0;
-        for (var i = 1; i < t.Length; i++)
+        var a = residual.Select((r, i) => Math.Sqrt(weights[i]) * r).ToArray();
+        var variance = a.Sum(v => v * v) / Math.Max(1, a.Length);
+        if (!(variance > 0)) return (0, 1);
+        var rho = new List<double>();
+        var lagOnePairs = 0;
+        for (var k = 1; k <= 4; k++)
         {
-            if (t[i] - t[i - 1] > 1.5) continue;
-            var a = Math.Sqrt(weights[i]) * residual[i];
-            var b = Math.Sqrt(weights[i - 1]) * residual[i - 1];
-            num += a * b;
-            den += b * b;
-            pairs++;
+            double sum = 0;
+            var pairs = 0;
+            for (var i = 0; i < t.Length; i++)
+            for (var j = i + 1; j < t.Length && t[j] - t[i] <= k + 0.25; j++)
+                if (t[j] - t[i] >= k - 0.25) { sum += a[i] * a[j]; pairs++; }
+            if (k == 1 && pairs < 5) return (0, 1);
+            var r = pairs > 0 ? sum / pairs / variance : 0;
+            if (k == 1) lagOnePairs = pairs;
+            if (!(r > 0.02)) break;
+            rho.Add(r);
         }
-        return pairs < 5 || !(den > 0) ? 0 : Math.Clamp(num / den, 0, 0.98);
+        if (rho.Count == 0) return (0, 1);
+        if (rho.Count == 1) return (Debiased(rho[0], lagOnePairs), 1);
+        double mk = 0, ml = 0, skk = 0, skl = 0;
+        for (var k = 0; k < rho.Count; k++) { mk += k + 1; ml += Math.Log(rho[k]); }
+        mk /= rho.Count;
+        ml /= rho.Count;
+        for (var k = 0; k < rho.Count; k++)
+        {
+            skk += (k + 1 - mk) * (k + 1 - mk);
+            skl += (k + 1 - mk) * (Math.Log(rho[k]) - ml);
+        }
+        var phi = Math.Clamp(Math.Exp(skl / skk), 0, 0.98);
+        var share = phi > 0 ? Math.Clamp(Math.Exp(ml - mk * Math.Log(phi)), 1e-3, 1) : 1;
+        return (Debiased(phi, lagOnePairs), share);
     }
+
+    /// <summary>φ̂ + (1 + 3φ̂)/n, clamped to [0, 0.98]: residual autocorrelation underestimates φ in short series by about
+    /// (1 + 3φ)/n (Kendall, Biometrika 41 (1954) 403; Marriott &amp; Pope, Biometrika 41 (1954) 390; from memory), which
+    /// would make a trend's standard error too small.</summary>
+    private static double Debiased(double phi, int n) => Math.Clamp(phi + (1 + 3 * phi) / Math.Max(1, n), 0, 0.98);
 }
 
 public static partial class LeastSquares
 {
-    /// <summary>Weighted least squares with AR(1) errors (feasible GLS): a plain fit, φ from its residuals, a whitened fit,
-    /// then φ once more from the whitened fit's residuals and the final whitened fit (Cochrane–Orcutt iteration; Cochrane
-    /// &amp; Orcutt, JASA 44 (1949) 32). With <paramref name="fixedPhi"/> the given φ is used instead.</summary>
-    public static FitResult? FitWithSerialCorrelation(FoulingModel model, double[] t, double[] y, double[] weights, double? fixedPhi = null)
+    /// <summary>Weighted least squares with AR(1)-plus-white-noise errors (feasible GLS): a plain fit, (φ, c) from its
+    /// residuals, a whitened fit, then (φ, c) once more from the whitened fit's residuals and the final whitened fit
+    /// (Cochrane–Orcutt iteration; Cochrane &amp; Orcutt, JASA 44 (1949) 32). With <paramref name="fixedPhi"/> the given φ
+    /// (and <paramref name="fixedShare"/>) are used instead.</summary>
+    public static FitResult? FitWithSerialCorrelation(FoulingModel model, double[] t, double[] y, double[] weights, double? fixedPhi = null,
+        double fixedShare = 1)
     {
-        if (fixedPhi is { } given) return Fit(model, t, y, weights, new Whitening(t, given));
+        if (fixedPhi is { } given) return Fit(model, t, y, weights, new Whitening(t, given, fixedShare));
         var fit = Fit(model, t, y, weights);
         for (var round = 0; round < 2 && fit is not null; round++)
         {
             var residual = t.Select((ti, i) => y[i] - model.Value(fit.Parameters, ti)).ToArray();
-            var phi = Whitening.EstimatePhi(t, residual, weights);
+            var (phi, share) = Whitening.Estimate(t, residual, weights);
             if (phi == 0) return fit;
-            var next = Fit(model, t, y, weights, new Whitening(t, phi), [fit.Parameters.ToArray(), .. model.StartingPoints(t, y)]);
+            var next = Fit(model, t, y, weights, new Whitening(t, phi, share), [fit.Parameters.ToArray(), .. model.StartingPoints(t, y)]);
             if (next is null) return fit;
             fit = next;
         }

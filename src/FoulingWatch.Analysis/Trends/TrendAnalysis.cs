@@ -171,8 +171,8 @@ public static class TrendAnalysis
             if (fit is null) { list.Add(new ModelCandidate(m, null, double.PositiveInfinity, double.NaN, "the fit did not converge")); continue; }
             var n = t.Length;
             // AICc of the Gaussian likelihood with AR(1) errors: the whitened RSS plus the whitening's log-determinant;
-            // parameters: the law's, the residual variance and, when estimated, φ (Hurvich & Tsai, Biometrika 76 (1989) 297).
-            var k = m.ParameterNames.Length + 1 + (fit.Autocorrelation > 0 ? 1 : 0);
+            // parameters: the law's, the residual variance and, when estimated, φ and c (Hurvich & Tsai, Biometrika 76 (1989) 297).
+            var k = m.ParameterNames.Length + 1 + (fit.Autocorrelation > 0 ? 2 : 0);
             var aicc = n * Math.Log(fit.WeightedResidualSumOfSquares / n) + fit.LogDeterminantTerm + 2 * k
                        + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1) : double.PositiveInfinity);
             var mean = y.Zip(w).Sum(p => p.First * p.Second) / w.Sum();

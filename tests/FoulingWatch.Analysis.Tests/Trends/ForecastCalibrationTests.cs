@@ -75,9 +75,9 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
         Assert.True(total >= 0.65, $"overall coverage fell to {total:P1}");
     }
 
-    // Synthetic, seeded, 200 clean exchangers: constant Rf with the same noise and biases. Target: "no significant fouling"
-    // in at least 95 % of cases. NOT met yet (163/200 at the last run: daily AR(1) noise with φ up to 0.9 wanders further
-    // than the fit's φ estimate allows on 4–8 months of data); held as a regression floor of 80 % until then.
+    // Synthetic, seeded, 200 clean exchangers: constant Rf with the same noise and biases. Target from the issue: "no
+    // significant fouling" in at least 95 % of cases (190/200 at the last run; 163/200 before the cleaning detector learnt
+    // the day-to-day wander and the AR fit the white-noise share and the small-sample bias of φ).
     [Fact]
     public void A_clean_exchanger_is_called_no_significant_fouling()
     {
@@ -92,7 +92,7 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
             if (TrendAnalysis.Run(h).Cycles[^1].Refusal?.StartsWith("no significant fouling", StringComparison.Ordinal) == true) quiet++;
         }
         output.WriteLine($"clean exchangers called 'no significant fouling': {quiet}/200");
-        Assert.True(quiet >= 160, $"{quiet}/200");
+        Assert.True(quiet >= 190, $"{quiet}/200");
     }
 
     private static Func<double, double> Asymptotic(double r0, double crossing, double tau)

@@ -35,6 +35,20 @@ public class SerialCorrelationTests
         Assert.Equal(se1, fit.StandardErrors[1], se1 * 1e-6);
     }
 
+    // Reference implementation as above, for AR(1) plus white noise: Σ = c·φ^|tᵢ−tⱼ| + (1 − c)·I with φ = 0.8, c = 0.6.
+    // statsmodels printed params [379.0799654432995, 0.654224579301467], bse [282.79536503744106, 12.031275897825116] and
+    // numpy's slogdet(Σ) = −10.46380916021057 (the whitening's log-determinant term).
+    [Fact]
+    public void The_AR1_plus_white_noise_fit_equals_generalised_least_squares_of_a_reference_implementation()
+    {
+        var fit = LeastSquares.FitWithSerialCorrelation(new LinearFouling(), Days, NorrisY(), Days.Select(_ => 1.0).ToArray(), 0.8, 0.6)!;
+        Assert.Equal(379.0799654432995, fit.Parameters[0], 379.08 * 1e-6);
+        Assert.Equal(0.654224579301467, fit.Parameters[1], 0.6542 * 1e-6);
+        Assert.Equal(282.79536503744106, fit.StandardErrors[0], 282.8 * 1e-6);
+        Assert.Equal(12.031275897825116, fit.StandardErrors[1], 12.03 * 1e-6);
+        Assert.Equal(-10.46380916021057, fit.LogDeterminantTerm, 1e-9);
+    }
+
     // Analytic: the Prais–Winsten transformation L satisfies LᵀL = Σ⁻¹ for Σᵢⱼ = φ^|tᵢ−tⱼ| (the whitening identity behind GLS),
     // checked against MathNet's inverse of the explicit matrix on the irregular grid, to 1e-9.
     [Fact]
@@ -64,7 +78,9 @@ public class SerialCorrelationTests
         var t = Enumerable.Range(0, 2000).Select(i => i + 0.5).ToArray();
         var e = 0.0;
         var r = t.Select(_ => e = 0.8 * e + JointDraws.Gaussian(rng)).ToArray();
-        Assert.InRange(Whitening.EstimatePhi(t, r, t.Select(_ => 1.0).ToArray()), 0.75, 0.85);
+        var (phi, share) = Whitening.Estimate(t, r, t.Select(_ => 1.0).ToArray());
+        Assert.InRange(phi, 0.75, 0.85);
+        Assert.InRange(share, 0.9, 1.0);
     }
 
     // Source: Burnham & Anderson (2002), §2.9: wᵢ = exp(−Δᵢ/2)/Σ exp(−Δⱼ/2). For ΔAICc = 0, 2, 4 the weights are
