@@ -78,32 +78,38 @@ public sealed class AsymptoticFouling : FoulingModel
     public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, 1e5];
 }
 
-/// <summary>Falling-rate fouling Rf = R0 + a·tⁿ with 0 &lt; n &lt; 1 (power-law growth whose rate falls with time).</summary>
-public sealed class FallingRateFouling : FoulingModel
+/// <summary>Power-law fouling Rf = R0 + a·(t/s)ⁿ with the exponent in a band and a fixed time scale s (days): the shared
+/// form of the falling-rate and accelerating laws.</summary>
+/// <remarks>The time scale keeps a of the order of Rf itself, which the bounded Levenberg–Marquardt search needs: with
+/// s = 1 day and n near 2, a would be ~1e-8 and lie at the bottom of its bound's resolution.</remarks>
+public abstract class PowerLawFouling(double nLow, double nHigh, double[] startExponents, double scaleDays) : FoulingModel
 {
-    public override string Key => "falling-rate";
-    public override string Formula => "Rf = R0 + a·t^n, 0 < n < 1";
-    public override string Source => "falling-rate (power-law) fouling";
-    public override string[] ParameterNames => ["R0_m2K_per_W", "a_m2K_per_W_per_day_n", "n"];
-    public override double Value(ReadOnlySpan<double> p, double t) => p[0] + p[1] * Math.Pow(Math.Max(t, 0), p[2]);
+    private double S(double t) => Math.Max(t, 0) / scaleDays;
+
+    public override double Value(ReadOnlySpan<double> p, double t) => p[0] + p[1] * Math.Pow(S(t), p[2]);
 
     public override void Gradient(ReadOnlySpan<double> p, double t, Span<double> g)
     {
-        var tn = Math.Pow(Math.Max(t, 0), p[2]);
+        var tn = Math.Pow(S(t), p[2]);
         g[0] = 1;
         g[1] = tn;
-        g[2] = t > 0 ? p[1] * tn * Math.Log(t) : 0;
+        g[2] = t > 0 ? p[1] * tn * Math.Log(S(t)) : 0;
     }
 
-    public override double Rate(ReadOnlySpan<double> p, double t) => t > 0 ? p[1] * p[2] * Math.Pow(t, p[2] - 1) : double.PositiveInfinity;
+    public override double Rate(ReadOnlySpan<double> p, double t) =>
+        t > 0 ? p[1] * p[2] * Math.Pow(S(t), p[2] - 1) / scaleDays : p[2] < 1 ? double.PositiveInfinity : p[2] == 1 ? p[1] / scaleDays : 0;
+
+    /// <summary>NaN for an exponent outside the law's domain (a draw well beyond its band).</summary>
+    protected abstract bool InDomain(double n);
+
     public override double CrossingTime(ReadOnlySpan<double> p, double limit) =>
-        !(p[2] > 0) || p[2] > 1.5 ? double.NaN : limit <= p[0] ? 0 : p[1] > 0 ? Math.Pow((limit - p[0]) / p[1], 1 / p[2]) : double.PositiveInfinity;
+        !InDomain(p[2]) ? double.NaN : limit <= p[0] ? 0 : p[1] > 0 ? scaleDays * Math.Pow((limit - p[0]) / p[1], 1 / p[2]) : double.PositiveInfinity;
 
     public override IEnumerable<double[]> StartingPoints(double[] t, double[] y)
     {
-        foreach (var n in new[] { 0.3, 0.5, 0.8 })
+        foreach (var n in startExponents)
         {
-            var x = t.Select(v => Math.Pow(Math.Max(v, 0), n)).ToArray();
+            var x = t.Select(v => Math.Pow(S(v), n)).ToArray();
             double mx = x.Average(), my = y.Average(), sxy = 0, sxx = 0;
             for (var i = 0; i < x.Length; i++) { sxy += (x[i] - mx) * (y[i] - my); sxx += (x[i] - mx) * (x[i] - mx); }
             var a = sxx > 0 ? Math.Max(sxy / sxx, 1e-12) : 1e-9;
@@ -111,8 +117,30 @@ public sealed class FallingRateFouling : FoulingModel
         }
     }
 
-    public override double[] LowerBounds(double[] t, double[] y) => [-1.0, 0, 0.02];
-    public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, 0.999];
+    public override double[] LowerBounds(double[] t, double[] y) => [-1.0, 0, nLow];
+    public override double[] UpperBounds(double[] t, double[] y) => [1.0, 1.0, nHigh];
+}
+
+/// <summary>Falling-rate fouling Rf = R0 + a·tⁿ with 0 &lt; n &lt; 1 (power-law growth whose rate falls with time).</summary>
+public sealed class FallingRateFouling() : PowerLawFouling(0.02, 0.999, [0.3, 0.5, 0.8], 1)
+{
+    public override string Key => "falling-rate";
+    public override string Formula => "Rf = R0 + a·t^n, 0 < n < 1";
+    public override string Source => "falling-rate (power-law) fouling";
+    public override string[] ParameterNames => ["R0_m2K_per_W", "a_m2K_per_W_per_day_n", "n"];
+    protected override bool InDomain(double n) => n > 0 && n <= 1.5;
+}
+
+/// <summary>Accelerating fouling Rf = R0 + a·(t/100 d)ⁿ with 1 &lt; n ≤ 3: a rate that grows with time, as after an induction
+/// period or when the deposit's roughness speeds deposition (one of the classic shapes of fouling curves, e.g. Epstein,
+/// Heat Transfer Eng. 4 (1983) 43; from memory). The most urgent shape to forecast well: a line through it is late.</summary>
+public sealed class AcceleratingFouling() : PowerLawFouling(1.001, 3.0, [1.3, 1.7, 2.3], 100)
+{
+    public override string Key => "accelerating";
+    public override string Formula => "Rf = R0 + a·(t/100 d)^n, 1 < n ≤ 3";
+    public override string Source => "accelerating (power-law) fouling";
+    public override string[] ParameterNames => ["R0_m2K_per_W", "a_m2K_per_W_at_100_days", "n"];
+    protected override bool InDomain(double n) => n > 0.5 && n <= 4;
 }
 
 /// <summary>A least-squares fit of a model: parameters, covariance s²(JᵀWJ)⁻¹, weighted residual sum of squares.</summary>

@@ -15,8 +15,10 @@ public sealed class JointDraws
 {
     public const int Count = 1000;
 
-    public JointDraws(IReadOnlyList<FoulingModel> models, int[] model, double[][] parameters, double[] offset, double systematicSigma)
+    public JointDraws(IReadOnlyList<FoulingModel> models, int[] model, double[][] parameters, double[] offset, double systematicSigma,
+        double spread = 1)
     {
+        Spread = spread;
         Models = models;
         Model = model;
         Parameters = parameters;
@@ -31,6 +33,8 @@ public sealed class JointDraws
     /// <summary>Systematic error b of the measured Rf in each draw, m²·K/W (true = measured − b).</summary>
     public double[] Offset { get; }
     public double SystematicSigma { get; }
+    /// <summary>Factor k ≥ 1 on the parameter spread from the extrapolation check (<see cref="ForecastDiscrepancy"/>).</summary>
+    public double Spread { get; }
     public int Length => Model.Length;
 
     /// <summary>True Rf of draw j at t days since the cycle start.</summary>
@@ -39,8 +43,9 @@ public sealed class JointDraws
     /// <summary>Days since the cycle start at which the true Rf of draw j reaches the limit (+∞: never).</summary>
     public double Crossing(int j, double limit) => Models[Model[j]].CrossingTime(Parameters[j], limit + Offset[j]);
 
-    /// <summary>Draws the paths of a cycle's fitted candidates; null when no candidate has a fit.</summary>
-    public static JointDraws? Draw(IReadOnlyList<ModelCandidate> candidates, double systematicSigma, int seed)
+    /// <summary>Draws the paths of a cycle's fitted candidates, parameter deviations widened by <paramref name="spread"/>;
+    /// null when no candidate has a fit.</summary>
+    public static JointDraws? Draw(IReadOnlyList<ModelCandidate> candidates, double systematicSigma, int seed, double spread = 1)
     {
         var fitted = candidates.Where(c => c.Fit is not null && double.IsFinite(c.Aicc)).ToList();
         if (fitted.Count == 0) return null;
@@ -49,7 +54,7 @@ public sealed class JointDraws
         var model = new int[Count];
         var parameters = new double[Count][];
         var offset = new double[Count];
-        var factors = fitted.Select(c => CholeskyOf(c.Fit!)).ToArray();
+        var factors = fitted.Select(c => CholeskyOf(c.Fit!) * spread).ToArray();
         for (var j = 0; j < Count; j++)
         {
             var u = rng.NextDouble();
@@ -59,7 +64,7 @@ public sealed class JointDraws
             parameters[j] = DrawParameters(fitted[m].Model, fitted[m].Fit!, factors[m], rng);
             offset[j] = systematicSigma * Gaussian(rng);
         }
-        return new JointDraws(fitted.Select(c => c.Model).ToList(), model, parameters, offset, systematicSigma);
+        return new JointDraws(fitted.Select(c => c.Model).ToList(), model, parameters, offset, systematicSigma, spread);
     }
 
     public static double[] AkaikeWeights(double[] aicc)

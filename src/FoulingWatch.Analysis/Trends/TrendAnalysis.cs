@@ -47,7 +47,8 @@ public static class TrendAnalysis
     public const double RateJumpFactor = 2.0;
     public const int RecentDays = 28;
 
-    public static readonly FoulingModel[] Models = [new LinearFouling(), new AsymptoticFouling(), new FallingRateFouling()];
+    public static readonly FoulingModel[] Models =
+        [new LinearFouling(), new AsymptoticFouling(), new FallingRateFouling(), new AcceleratingFouling()];
 
     public const string ThresholdNote =
         "threshold (deposition minus removal, Ebert & Panchal 1995 family) model not fitted: it needs tube velocity or Reynolds number and film temperature, which the configuration does not give";
@@ -86,7 +87,9 @@ public static class TrendAnalysis
             var why = $"forecast and cleaning plan withheld: {history.SensorCheck.Statement}";
             return new TrendResult(daily, cycles, effects, null, rate, thresholdNote, null, why);
         }
-        var draws = current?.Chosen is null ? null : JointDraws.Draw(current.Candidates, SystematicSigma(current), seed);
+        var spread = current?.Chosen is null ? 1
+            : ForecastDiscrepancy.Factor(p => T(current.Start, p), current.Points, pts => FitAll(current.Start, pts, null));
+        var draws = current?.Chosen is null ? null : JointDraws.Draw(current.Candidates, SystematicSigma(current), seed, spread);
         var forecast = current is null || draws is null ? null : LimitForecasting.Forecast(history, current, draws, windows ?? []);
         return new TrendResult(daily, cycles, effects, forecast, rate, thresholdNote, draws);
     }

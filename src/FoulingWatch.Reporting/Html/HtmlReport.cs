@@ -86,10 +86,10 @@ public static class HtmlReport
             sb.Append("</tbody></table>\n");
             if (exchangerCharts.TryGetValue(xc.Id, out var charts))
                 foreach (var c in charts) sb.Append(Figure(c));
-            sb.Append("<h3>Cycles and fitted laws</h3><table><thead><tr><th>cycle</th><th>start from</th><th class=\"n\">days</th><th>chosen</th><th>AICc (linear / asymptotic / falling-rate)</th><th>note</th></tr></thead><tbody>");
+            sb.Append("<h3>Cycles and fitted laws</h3><table><thead><tr><th>cycle</th><th>start from</th><th class=\"n\">days</th><th>chosen</th><th>AICc and Akaike weight by law</th><th>note</th></tr></thead><tbody>");
             foreach (var c in x.Trend.Cycles)
             {
-                var aicc = string.Join(" / ", c.Candidates.Select(m => N(m.Aicc, "0.0")));
+                var aicc = string.Join(" · ", c.Candidates.Select(m => $"{H(m.Model.Key)} {N(m.Aicc, "0.0")} ({N(m.AkaikeWeight * 100, "0")} %)"));
                 sb.Append($"<tr><td>{D(c.Start)} – {D(c.End)}</td><td>{(c.StartSource?.ToString().ToLowerInvariant() ?? "data start")}</td><td class=\"n\">{c.Points.Count}</td><td>{H(c.Chosen?.Model.Formula ?? "—")}</td><td>{aicc}</td><td>{H(c.Refusal ?? (c.OutliersRejected > 0 ? $"{c.OutliersRejected} outlier days rejected" : ""))}</td></tr>");
             }
             sb.Append("</tbody></table>\n");

@@ -34,22 +34,23 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
             new SensorCheck(0, 0, null, null, null, null, null, false, "not checked"), null);
     }
 
-    // Synthetic, seeded, 200 exchangers: a quarter each linear, asymptotic (Kern–Seaton), falling-rate, and accelerating
-    // growth Rf ∝ t^1.2–1.5 (a law not among the candidates); daily AR(1) noise with φ 0.5–0.9; a calibration bias drawn
-    // from the stated systematic σ. The true crossing lies 20–200 days after the data. Target: the 90 % interval covers the
-    // true date in 85–95 % of cases. Met for the three laws among the candidates (90 % at the last run); NOT met for the
-    // accelerating law outside the candidate set (8 %), so the overall figure (69.5 %) is held here only as a regression
-    // floor until model-form discrepancy enters the draws (open in the uncertainty issue).
+    // Synthetic, seeded, 200 exchangers, 40 each: linear, asymptotic (Kern–Seaton), falling-rate, accelerating
+    // (Rf ∝ t^1.2–1.8), and a law outside the candidate set: a linear cycle whose rate jumps ×2–3 at a day in its second
+    // half (a change of feed). Daily AR(1) noise with φ 0.5–0.9, white scatter within the day, and a calibration bias drawn
+    // from the stated systematic σ. The true crossing lies 20–200 days after the data. Target from the issue: the 90 %
+    // interval covers the true date in 85–95 % of cases (86.0 % at the last run: linear 37/40, asymptotic 38/40,
+    // falling-rate 32/40, accelerating 35/40, rate jump 30/40).
     [Fact]
     public void The_90_percent_limit_date_interval_covers_the_true_date_at_its_nominal_rate()
     {
         var x = TestExchangers.Simple("[ { \"date\": \"2026-01-01T00:00:00Z\", \"action\": \"cleaned\" } ]");
-        var covered = new int[4];
-        var cases = new int[4];
+        string[] kinds = ["linear", "asymptotic", "falling-rate", "accelerating", "rate jump (outside the set)"];
+        var covered = new int[kinds.Length];
+        var cases = new int[kinds.Length];
         for (var seed = 0; seed < 200; seed++)
         {
             var rng = new Random(5000 + seed);
-            var kind = seed % 4;
+            var kind = seed % kinds.Length;
             var days = 120 + rng.Next(80);
             var crossing = days + 20 + rng.NextDouble() * 180;
             var r0 = 2e-5 + 4e-5 * rng.NextDouble();
@@ -58,7 +59,8 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
                 0 => t => r0 + (Limit - r0) / crossing * t,
                 1 => Asymptotic(r0, crossing, 150 + 200 * rng.NextDouble()),
                 2 => Power(r0, crossing, 0.5 + 0.35 * rng.NextDouble()),
-                _ => Power(r0, crossing, 1.2 + 0.3 * rng.NextDouble()),
+                3 => Power(r0, crossing, 1.2 + 0.6 * rng.NextDouble()),
+                _ => RateJump(r0, crossing, days * (0.5 + 0.4 * rng.NextDouble()), 2 + rng.NextDouble()),
             };
             var h = Cycle(x, law, days, 1e-5 + 2e-5 * rng.NextDouble(), 0.5 + 0.4 * rng.NextDouble(), Systematic * JointDraws.Gaussian(rng), rng);
             var f = TrendAnalysis.Run(h).Forecast;
@@ -68,11 +70,9 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
             if ((f.Low ?? DateTimeOffset.MinValue) <= truth && truth <= (f.High ?? DateTimeOffset.MaxValue)) covered[kind]++;
         }
         var total = covered.Sum() / 200.0;
-        var inFamily = (covered[0] + covered[1] + covered[2]) / (double)(cases[0] + cases[1] + cases[2]);
-        output.WriteLine($"90 % limit-date interval coverage: {total:P1} (linear {covered[0]}/{cases[0]}, asymptotic {covered[1]}/{cases[1]}, " +
-                         $"falling-rate {covered[2]}/{cases[2]}, accelerating {covered[3]}/{cases[3]}); laws among the candidates {inFamily:P1}");
-        Assert.InRange(inFamily, 0.85, 0.95);
-        Assert.True(total >= 0.65, $"overall coverage fell to {total:P1}");
+        output.WriteLine($"90 % limit-date interval coverage: {total:P1} (" +
+                         string.Join(", ", kinds.Select((k, i) => $"{k} {covered[i]}/{cases[i]}")) + ")");
+        Assert.InRange(total, 0.85, 0.95);
     }
 
     // Synthetic, seeded, 200 clean exchangers: constant Rf with the same noise and biases. Target from the issue: "no
@@ -99,6 +99,14 @@ public class ForecastCalibrationTests(ITestOutputHelper output)
     {
         var rInf = (Limit - r0) / (1 - Math.Exp(-crossing / tau));
         return t => r0 + rInf * (1 - Math.Exp(-t / tau));
+    }
+
+    /// <summary>Linear growth whose rate jumps by <paramref name="factor"/> at day <paramref name="jump"/>, reaching the limit at
+    /// <paramref name="crossing"/>.</summary>
+    private static Func<double, double> RateJump(double r0, double crossing, double jump, double factor)
+    {
+        var a = (Limit - r0) / (jump + factor * (crossing - jump));
+        return t => r0 + a * Math.Min(t, jump) + factor * a * Math.Max(0, t - jump);
     }
 
     private static Func<double, double> Power(double r0, double crossing, double n)
