@@ -1,3 +1,4 @@
+using FoulingWatch.Core.Uncertainty;
 using FoulingWatch.Core.Exchangers;
 using FoulingWatch.Core.FluidModels;
 using FoulingWatch.Core.Quantities;
@@ -189,26 +190,8 @@ public sealed class SampleEvaluator
         return 1 / e.UActual - 1 / uc;
     }
 
-    /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the manner of ASME PTC 19.1.</summary>
-    /// <remarks>Partial derivatives by central differences with steps of σᵢ/100. Sensor errors are taken as independent.</remarks>
-    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean)
-    {
-        var sigma = Sigmas(m);
-        var probe = (double[])m.Clone();
-        var sum = 0.0;
-        for (var i = 0; i < m.Length; i++)
-        {
-            if (!(sigma[i] > 0)) continue;
-            var h = sigma[i] / 100;
-            probe[i] = m[i] + h;
-            var up = FoulingResistanceOf(probe, pHot, pCold, clean);
-            probe[i] = m[i] - h;
-            var down = FoulingResistanceOf(probe, pHot, pCold, clean);
-            probe[i] = m[i];
-            if (!double.IsFinite(up) || !double.IsFinite(down)) return double.NaN;
-            var d = (up - down) / (2 * h);
-            sum += d * d * sigma[i] * sigma[i];
-        }
-        return Math.Sqrt(sum);
-    }
+    /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the
+    /// manner of ASME PTC 19.1 (<see cref="FirstOrderPropagation"/>). Sensor errors are taken as independent.</summary>
+    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean) =>
+        FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean), m, Sigmas(m));
 }
