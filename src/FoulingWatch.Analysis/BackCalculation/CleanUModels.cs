@@ -1,3 +1,4 @@
+using FoulingWatch.Core.Uncertainty;
 using FoulingWatch.Ingest.Configuration;
 
 namespace FoulingWatch.Analysis.BackCalculation;
@@ -42,9 +43,26 @@ public sealed class DatasheetCleanU : ICleanUModel
 
     public string Description { get; }
 
-    /// <summary>u(1/U_c) = u_rel·(1/U_c): a relative error of the datasheet U scales the whole clean resistance
-    /// (first order, GUM 5.1.6 for a power law with exponent −1).</summary>
-    public double InverseSigma(double tubeFlow, double shellFlow) => _r.RelativeUncertainty / CleanU(tubeFlow, shellFlow);
+    /// <summary>Standard uncertainty assumed for a configured tube share (absolute, 0.10) and for each film's flow exponent
+    /// (0.05): neither is printed on a datasheet, and both move the clean U only away from design flows (common practice,
+    /// from memory: Dittus–Boelter's 0.8 and the shell side's 0.6 are each quoted within about ±0.05).</summary>
+    public const double ShareUncertainty = 0.10, ExponentUncertainty = 0.05;
+
+    /// <summary>u(1/U_c) by first-order propagation (GUM 5.1.2) of the datasheet U (its relative uncertainty), the tube
+    /// share and the two flow exponents (a phase-change side keeps n = 0).</summary>
+    public double InverseSigma(double tubeFlow, double shellFlow)
+    {
+        double[] x = [_r.CleanU, _r.TubeShare, _nTube, _nShell];
+        double[] u = [_r.RelativeUncertainty * _r.CleanU, ShareUncertainty, _nTube > 0 ? ExponentUncertainty : 0, _nShell > 0 ? ExponentUncertainty : 0];
+        return FirstOrderPropagation.StandardUncertainty(v => Inverse(v[0], v[1], v[2], v[3], tubeFlow, shellFlow), x, u);
+    }
+
+    private double Inverse(double u, double share, double nTube, double nShell, double tubeFlow, double shellFlow)
+    {
+        var film = 1 / u - _r.WallResistance;
+        return share * film * Math.Pow(_r.DesignTubeFlow / tubeFlow, nTube)
+               + (1 - share) * film * Math.Pow(_r.DesignShellFlow / shellFlow, nShell) + _r.WallResistance;
+    }
 
     public double CleanU(double tubeFlow, double shellFlow) =>
         1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) + _r.WallResistance);

@@ -71,10 +71,11 @@ public static class ReportCharts
         if (daily.Count > 0)
         {
             var xs = daily.Select(d => X(d.Day.AddHours(12))).ToArray();
-            var band = plot.Add.FillY(xs, daily.Select(d => (d.FoulingResistance - d.Sigma) * scale).ToArray(), daily.Select(d => (d.FoulingResistance + d.Sigma) * scale).ToArray());
+            var band = plot.Add.FillY(xs, daily.Select(d => (d.FoulingResistance - d.SigmaCombined) * scale).ToArray(),
+                daily.Select(d => (d.FoulingResistance + d.SigmaCombined) * scale).ToArray());
             band.FillStyle.Color = Sky.WithAlpha(0.35);
             band.LineStyle.Width = 0;
-            band.LegendText = "±σ of the daily median";
+            band.LegendText = "±σ of the daily median (systematic and random)";
             var points = plot.Add.ScatterPoints(xs, daily.Select(d => d.FoulingResistance * scale).ToArray());
             points.Color = Blue;
             points.MarkerSize = 4;
