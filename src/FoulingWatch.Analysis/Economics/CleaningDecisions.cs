@@ -18,11 +18,13 @@ public sealed record DecisionOption(string Kind, string Label, ShutdownWindow? W
     double ProbabilityUnplannedStop);
 
 /// <summary>The options of one exchanger, the recommended one and how sure the recommendation is.</summary>
+/// <param name="PathCostPerDayNow">Fouling cost per day at the end of the data on the central path the options are priced on
+/// (typical conditions of the last 30 days), to compare with the measured cost per day now.</param>
 /// <param name="ReferenceEnergy">Expected fouling energy (J) of the reference path over the horizon: no option can avoid more.</param>
 public sealed record CleaningDecision(IReadOnlyList<DecisionOption> Options, DecisionOption Recommended, DecisionOption Reference,
     double ProbabilityRecommendedBest, bool Uncertain, string? Settle, double? OptimalIntervalDays, double? OptimalCostRatePerDay,
     double HorizonDays, double DowntimeCostPerDay, double UnplannedStopCost, DateTimeOffset Now, LimitForecast? Limit,
-    double? BreakEvenRate, double FoulingRateNow, string Currency, double ReferenceEnergy = double.NaN)
+    double? BreakEvenRate, double FoulingRateNow, string Currency, double ReferenceEnergy = double.NaN, double PathCostPerDayNow = double.NaN)
 {
     public string Statement(TimeZoneInfo zone) => DecisionText.Statement(this, zone);
 }
@@ -124,7 +126,7 @@ public static class CleaningDecisions
         return new CleaningDecision(options, options[best], options[reference], pBest, uncertain,
             uncertain ? Settle(cycle, draws, tNow) : null, optimalDays, optimalDays is null ? null : optimum.Rate,
             horizon, downtimeCost, unplanned, now, forecast, BreakEvenRate(options[best], planned, horizon, lostDuty, cycle, tNow, pricing),
-            rfRate, pricing.Currency, Enumerable.Range(0, n).Average(j => energies[reference, j]));
+            rfRate, pricing.Currency, Enumerable.Range(0, n).Average(j => energies[reference, j]), central.Rate(tNow));
     }
 
     private static double MaxCycle(double crossing, int gridDays) =>

@@ -273,6 +273,7 @@ public static class ResultWriter
             horizon_days = NumberText.Json(dec.HorizonDays),
             reference = dec.Reference.Kind,
             downtime_cost_per_day = NumberText.Json(dec.DowntimeCostPerDay),
+            path_cost_per_day_now = NumberText.Json(dec.PathCostPerDayNow),
             unplanned_stop_cost = NumberText.Json(dec.UnplannedStopCost),
             recommended = dec.Recommended.Kind,
             recommended_window = dec.Recommended.Window?.Name,
