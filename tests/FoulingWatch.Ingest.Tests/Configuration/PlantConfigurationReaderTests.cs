@@ -172,3 +172,38 @@ public class EconomicsConfigurationTests
     public void An_explicit_CO2_factor_overrides_the_fuel_default()
         => Assert.Equal(70_000e-12, Read("{ \"currency\": \"EUR\", \"fuel\": \"natural-gas\", \"co2Factor\": \"70 t/TJ\" }").Co2KilogramsPerJoule!.Value, 1e-20);
 }
+
+public class DecisionSettingsTests
+{
+    // The keys of the uncertainty and decision settings read into SI with their documented defaults, and an impossible
+    // value names its key and range.
+    [Fact]
+    public void Clean_uncertainty_and_cleaning_decision_keys_read_with_their_defaults()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }",
+            TestPlant.Interchanger(extra: ", \"cleaning\": { \"cost\": \"30000 EUR\", \"downtime\": \"3 d\", \"unplannedStopCost\": \"45000 EUR\", \"leadTime\": \"7 d\" }")
+                .Replace("\"u\": \"450 W/m2K\"", "\"u\": \"450 W/m2K\", \"uncertainty\": \"8 %\""));
+        var x = PlantConfigurationReader.Load(plant.ConfigPath).Exchangers[0];
+        Assert.Equal(0.08, Assert.IsType<DatasheetCleanReference>(x.Clean).RelativeUncertainty, 12);
+        Assert.Equal(45000, x.Cleaning.UnplannedStopCost);
+        Assert.Null(x.Cleaning.UnplannedDowntime);
+        Assert.Null(x.Cleaning.DowntimeCostPerDay);
+        Assert.Equal(TimeSpan.FromDays(7), x.Cleaning.LeadTime);
+
+        using var defaults = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }");
+        var d = PlantConfigurationReader.Load(defaults.ConfigPath);
+        Assert.Equal(DatasheetCleanReference.DefaultUncertainty, Assert.IsType<DatasheetCleanReference>(d.Exchangers[0].Clean).RelativeUncertainty);
+        Assert.Equal(EconomicsSettings.DefaultDecisionConfidence, d.Economics.DecisionConfidence);
+    }
+
+    [Fact]
+    public void A_datasheet_uncertainty_beyond_half_the_clean_U_is_refused_with_its_key()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }",
+            TestPlant.Interchanger().Replace("\"u\": \"450 W/m2K\"", "\"u\": \"450 W/m2K\", \"uncertainty\": \"80 %\""));
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].clean.uncertainty", e.Path);
+        Assert.Equal("80 % is out of range; use 0 % to 50 %.", e.Message);
+    }
+}
