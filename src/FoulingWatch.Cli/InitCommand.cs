@@ -25,7 +25,7 @@ public static class InitCommand
         if (File.Exists(outPath)) { error.WriteLine($"'{outPath}' exists already; choose another --out or delete it (init never overwrites a configuration)."); return FoulingWatchCommand.UsageOrConfigurationError; }
 
         var source = new HistorianSource("historian", "data.sources[0]", ["*"], dataFiles, HistorianLayout.Wide, null, null, null, null, null,
-            new TimestampSettings(null, null, false), PlantConfigurationReader.DefaultMarkers, "Tag", "Value", null, []);
+            new TimestampSettings(null, null, false), [], "Tag", "Value", null, []);
         var dialect = FileDialectDetector.Detect(dataFiles[0], source);
         var tsColumn = FileDialectDetector.TimestampColumnIndex(dialect.Header, source);
         var rows = SampleRows(dataFiles[0], dialect, 2000);

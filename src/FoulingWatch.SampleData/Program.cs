@@ -74,9 +74,9 @@ static (List<DateTimeOffset> Times, Dictionary<string, string[]> Columns, List<s
                 if (i == 5 && x.ColdOutletDrift is not null) v += x.ColdOutletDrift(t);
                 var text = isFlow ? (v * 3.6).ToString("0.00", inv) : v.ToString("0.00", inv);
                 var u = rng.NextDouble();
-                if (downtime && isFlow && (t - x.Cleanings.Where(c => c <= t + TimeSpan.FromDays(2)).Max()).TotalHours > -48 && (t - x.Cleanings.Where(c => c <= t + TimeSpan.FromDays(2)).Max()).TotalHours < -42) text = "Shutdown";
-                else if (u < 0.0008) text = "Bad";
-                else if (u < 0.0012) text = "I/O Timeout";
+                if (downtime && isFlow && (t - x.Cleanings.Where(c => c <= t + TimeSpan.FromDays(2)).Max()).TotalHours > -48 && (t - x.Cleanings.Where(c => c <= t + TimeSpan.FromDays(2)).Max()).TotalHours < -42) text = "unit down";
+                else if (u < 0.0008) text = "no reading";
+                else if (u < 0.0012) text = "link lost";
                 else if (u < 0.0014) text = "";
                 columns[names[i]][k] = text;
             }

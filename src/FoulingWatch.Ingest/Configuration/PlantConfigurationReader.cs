@@ -12,9 +12,6 @@ namespace FoulingWatch.Ingest.Configuration;
 /// <remarks>All problems are collected and reported together in one <see cref="ConfigurationException"/>, each with its JSON path.</remarks>
 public static class PlantConfigurationReader
 {
-    public static readonly IReadOnlyList<string> DefaultMarkers =
-        ["Bad", "Bad Input", "No Data", "I/O Timeout", "Shutdown", "Calc Failed", "Comm Fail", "Scan Off", "Pt Created", "Over Range", "Under Range", "NaN", "#N/A", "null", "-"];
-
     private static readonly JsonDocumentOptions JsonOptions = new()
     {
         CommentHandling = JsonCommentHandling.Skip,
@@ -169,7 +166,7 @@ public static class PlantConfigurationReader
         ts?.Done();
         var markers = s.Has("markers")
             ? s.Array("markers").Where(m => m.Element.ValueKind == JsonValueKind.String).Select(m => m.Element.GetString()!).ToList()
-            : DefaultMarkers.ToList();
+            : [];
         var tagColumn = s.String("tagColumn") ?? "Tag";
         var valueColumn = s.String("valueColumn") ?? "Value";
         var qualityColumn = s.String("qualityColumn");

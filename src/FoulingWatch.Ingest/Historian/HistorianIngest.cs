@@ -278,13 +278,22 @@ public static partial class HistorianIngest
         si = double.NaN;
         if (span.IsEmpty) { RejectValue(ledger, plan.Tag, RejectReason.Empty, null, file, line, column); return false; }
         var text = Encoding.UTF8.GetString(span).Trim();
-        if (markers.TryGetValue(text, out var marker))
+        if (markers.TryGetValue(text, out var marker) || !StartsLikeNumber(span, decimalByte))
         {
-            ledger.CountMarker(marker);
+            ledger.CountMarker(marker ?? text);
             RejectValue(ledger, plan.Tag, RejectReason.TextMarker, text, file, line, column);
         }
         else RejectValue(ledger, plan.Tag, RejectReason.NotANumber, text, file, line, column);
         return false;
+    }
+
+    /// <summary>Whether a field opens like a number (a digit, or a sign or decimal separator followed by a digit): such text
+    /// that fails to parse is a malformed number; any other text is a marker, whatever its words.</summary>
+    private static bool StartsLikeNumber(ReadOnlySpan<byte> span, byte decimalByte)
+    {
+        var i = span.Length > 0 && span[0] is (byte)'+' or (byte)'-' ? 1 : 0;
+        if (i < span.Length && span[i] == decimalByte) i++;
+        return i < span.Length && span[i] is >= (byte)'0' and <= (byte)'9';
     }
 
     /// <summary>A finite number filling the whole field: the plain-decimal route first, then the general parser (exponents, long digit strings).</summary>
@@ -302,8 +311,8 @@ public static partial class HistorianIngest
     public static string Example(string file, long line, int column, string tag, RejectReason reason, string? text) => reason switch
     {
         RejectReason.Empty => $"{file}: line {line}, column {column} ({tag}): the field is empty; the value is counted as rejected.",
-        RejectReason.TextMarker => $"{file}: line {line}, column {column} ({tag}): '{text}' is a historian marker, not a value; the value is counted as rejected.",
-        RejectReason.NotANumber => $"{file}: line {line}, column {column} ({tag}): '{text}' is not a number; the value is counted as rejected. Check how the historian exports this tag, or add the text to the source's markers.",
+        RejectReason.TextMarker => $"{file}: line {line}, column {column} ({tag}): '{text}' is text where a value belongs; the value is counted as rejected and the text tallied.",
+        RejectReason.NotANumber => $"{file}: line {line}, column {column} ({tag}): '{text}' is not a number; the value is counted as rejected. Check the source's decimal and delimiter settings, or how the historian exports this tag.",
         RejectReason.OutOfRange => $"{file}: line {line}, column {column} ({tag}): {text} is outside the tag's physical range; the value is counted as rejected. Widen the tag's range if the reading is real.",
         RejectReason.BadTimestamp => $"{file}: line {line}, column {column} ({tag}): '{text}' is not a timestamp; the row is counted as rejected. Set the source's timestamp.format if the export uses another format.",
         RejectReason.NonexistentLocalTime => $"{file}: line {line}, column {column} ({tag}): '{text}' falls in the skipped daylight-saving hour; the row is counted as rejected.",

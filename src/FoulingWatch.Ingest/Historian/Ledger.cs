@@ -5,9 +5,11 @@ public enum RejectReason
 {
     /// <summary>The field is empty.</summary>
     Empty,
-    /// <summary>A historian text marker such as "Bad" or "I/O Timeout" stands where the number belongs.</summary>
+    /// <summary>Text stands where the number belongs (a word, a symbol such as "-" or "#N/A"): whatever a historian writes for
+    /// a missing or invalid value. The distinct texts are tallied per tag.</summary>
     TextMarker,
-    /// <summary>Text that is neither a number nor a known marker.</summary>
+    /// <summary>Something that starts like a number but is not one (e.g. "12,5" where the decimal is a point, "1.2.3"): usually
+    /// a dialect setting to fix.</summary>
     NotANumber,
     /// <summary>The quality column says the value is not good.</summary>
     BadQuality,
@@ -112,10 +114,42 @@ public sealed class TagLedger
         }
     }
 
+    /// <summary>Distinct marker texts tallied per tag; beyond this the ordinally largest are folded into
+    /// <see cref="OtherTexts"/>, which keeps memory bounded and the tally the same however the file is cut (the kept set is
+    /// always the smallest texts of the union).</summary>
+    public const int MarkerTextLimit = 1000;
+    public const string OtherTexts = "(other texts)";
+    private const int MarkerTextLength = 40;
+
     internal void CountMarker(string marker)
     {
+        if (marker.Length > MarkerTextLength) marker = marker[..MarkerTextLength] + "…";
+        Add(marker, 1);
+    }
+
+    private void Add(string marker, long count)
+    {
         Markers.TryGetValue(marker, out var n);
-        Markers[marker] = n + 1;
+        Markers[marker] = n + count;
+        while (Markers.Count - (Markers.ContainsKey(OtherTexts) ? 1 : 0) > MarkerTextLimit)
+        {
+            var largest = Markers.Keys.Last(k => k != OtherTexts);
+            var folded = Markers[largest];
+            Markers.Remove(largest);
+            Markers.TryGetValue(OtherTexts, out var other);
+            Markers[OtherTexts] = other + folded;
+        }
+    }
+
+    /// <summary>The most frequent marker texts, most frequent first (ties by text), with the rest summed as
+    /// <see cref="OtherTexts"/>.</summary>
+    public IReadOnlyList<KeyValuePair<string, long>> TopMarkers(int count)
+    {
+        var texts = Markers.Where(m => m.Key != OtherTexts).OrderByDescending(m => m.Value).ThenBy(m => m.Key, StringComparer.Ordinal).ToList();
+        var top = texts.Take(count).ToList();
+        var rest = texts.Skip(count).Sum(m => m.Value) + Markers.GetValueOrDefault(OtherTexts);
+        if (rest > 0) top.Add(new KeyValuePair<string, long>(OtherTexts, rest));
+        return top;
     }
 
     public void Merge(TagLedger other)
@@ -135,7 +169,7 @@ public sealed class TagLedger
         Read += other.Read;
         Used += other.Used;
         for (var i = 0; i < Rejected.Length; i++) Rejected[i] += other.Rejected[i];
-        foreach (var (k, v) in other.Markers) { Markers.TryGetValue(k, out var n); Markers[k] = n + v; }
+        foreach (var (k, v) in other.Markers) Add(k, v);
     }
 }
 

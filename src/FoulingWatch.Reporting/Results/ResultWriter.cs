@@ -330,7 +330,7 @@ public static class ResultWriter
         read = l.Read,
         used = l.Used,
         rejected = RejectReasons.All.ToDictionary(r => r.Key(), r => l.Rejected[(int)r]),
-        markers = l.Markers,
+        markers = l.TopMarkers(10).ToDictionary(m => m.Key, m => m.Value),
         intervals_with_data = l.IntervalsWithData,
         intervals_bridged = l.IntervalsBridged,
         intervals_missing = l.IntervalsMissing,

@@ -38,8 +38,8 @@ public class FilePartsTests
             var ts = m % 97 == 5 ? "2026-03-02 25:00" : start.AddMinutes(m % 211 == 7 ? m - 3 : m).ToString("yyyy-MM-ddTHH:mm:ssZ", System.Globalization.CultureInfo.InvariantCulture);
             var flow = (m % 13) switch
             {
-                1 => "Bad", 2 => "", 3 => " " + N(100 + rng.NextDouble(), "0.00") + " ", 4 => N(1.05, "0.00") + "e2", 5 => "0000000000000000000101" + separator + "5",
-                6 => "+" + N(99.5, "0.0"), 7 => "-" + N(5, "0.0"), 8 => "No Data", 9 => N(100, "0") + separator, _ => N(100 + 10 * rng.NextDouble(), "0.000"),
+                1 => "no reading", 2 => "", 3 => " " + N(100 + rng.NextDouble(), "0.00") + " ", 4 => N(1.05, "0.00") + "e2", 5 => "0000000000000000000101" + separator + "5",
+                6 => "+" + N(99.5, "0.0"), 7 => "-" + N(5, "0.0"), 8 => "link lost", 9 => N(100, "0") + separator, _ => N(100 + 10 * rng.NextDouble(), "0.000"),
             };
             string[] fields = [m % 50 == 0 ? "shift change" : "", ts, flow, N(250 + rng.NextDouble(), "0.00"), N(m % 41 == 0 ? 9999 : 180 + rng.NextDouble(), "0.0"),
                 N(90 + rng.NextDouble(), "0.00"), N(40 + rng.NextDouble(), "0.00"), N(95 + rng.NextDouble(), "0.00")];
@@ -147,7 +147,7 @@ public class FilePartsTests
         {
             var local = start.AddMinutes(5 * m);
             var note = m % 7 == 0 ? "\"operator note,\nsecond line \"\"quoted\"\"\"" : "";
-            var reading = m % 31 == 0 ? "Bad" : m % 37 == 0 ? "" : (100 + 10 * rng.NextDouble()).ToString("0.000", System.Globalization.CultureInfo.InvariantCulture);
+            var reading = m % 31 == 0 ? "no reading" : m % 37 == 0 ? "" : (100 + 10 * rng.NextDouble()).ToString("0.000", System.Globalization.CultureInfo.InvariantCulture);
             lines.Add($"{local:yyyy-MM-dd HH:mm},{note},{reading},{250 + rng.NextDouble():0.00}, {180 + rng.NextDouble():0.00} ,{90 + rng.NextDouble():0.0},{40 + rng.NextDouble():0.00},{95 + rng.NextDouble():0.00}");
         }
         // The autumn hour 02:00-03:00 on 26 October appears twice in a local-time export: as written by the clock.
@@ -202,7 +202,7 @@ public class FilePartsTests
         for (var m = 0; m < 400; m++)
         {
             sb.Append(ends == "\r" ? "\r" : (m % 7) switch { 2 => "\r", 5 => "\r\n", _ => "\n" });
-            var flow = m > 300 && m % 11 == 4 ? "Bad" : (100 + rng.NextDouble()).ToString("0.00", System.Globalization.CultureInfo.InvariantCulture);
+            var flow = m > 300 && m % 11 == 4 ? "no reading" : (100 + rng.NextDouble()).ToString("0.00", System.Globalization.CultureInfo.InvariantCulture);
             sb.Append(System.Globalization.CultureInfo.InvariantCulture,
                 $"{start.AddMinutes(m):yyyy-MM-ddTHH:mm:ssZ},{flow},{250 + rng.NextDouble():0.00},{180 + rng.NextDouble():0.00},{90 + rng.NextDouble():0.00},{40 + rng.NextDouble():0.00},{95 + rng.NextDouble():0.00}");
         }

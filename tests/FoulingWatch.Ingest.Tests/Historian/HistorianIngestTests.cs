@@ -33,8 +33,8 @@ public class HistorianIngestTests
         Assert.Equal(1, Rejected(flow, RejectReason.Duplicate));
         Assert.Equal(1, Rejected(flow, RejectReason.OutOfRange));
         Assert.Equal(1, Rejected(flow, RejectReason.BadTimestamp));
-        Assert.Equal(1, flow.Markers["Bad"]);
-        Assert.Equal(1, r.TagLedgers["TI-101"].Markers["I/O Timeout"]);
+        Assert.Equal(1, flow.Markers["no reading"]);
+        Assert.Equal(1, r.TagLedgers["TI-101"].Markers["link lost"]);
         AssertLedgersBalance(r);
         var report = Assert.Single(r.Files);
         Assert.Equal(10, report.DataRows);
@@ -46,8 +46,8 @@ public class HistorianIngestTests
     {
         using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"wide-artefacts.csv\"] }");
         var flow = Ingest(plant).TagLedgers["FI-101"];
-        Assert.Contains("wide-artefacts.csv: line 6, column 2 (FI-101): '12x3' is not a number; the value is counted as rejected. Check how the historian exports this tag, or add the text to the source's markers.", flow.Examples);
-        Assert.Contains("wide-artefacts.csv: line 4, column 2 (FI-101): 'Bad' is a historian marker, not a value; the value is counted as rejected.", flow.Examples);
+        Assert.Contains("wide-artefacts.csv: line 6, column 2 (FI-101): '12x3' is not a number; the value is counted as rejected. Check the source's decimal and delimiter settings, or how the historian exports this tag.", flow.Examples);
+        Assert.Contains("wide-artefacts.csv: line 4, column 2 (FI-101): 'no reading' is text where a value belongs; the value is counted as rejected and the text tallied.", flow.Examples);
     }
 
     [Fact]
@@ -90,7 +90,7 @@ public class HistorianIngestTests
         Assert.Equal(new DateTimeOffset(2025, 1, 31, 23, 0, 0, TimeSpan.Zero), r.GridStart);
         Assert.Equal(120.5 / 3.6, r.Series["FI-101"][0], 9);
         Assert.Equal(250.0 + 273.15, r.Series["TI-101"][0], 9);
-        Assert.Equal(1, r.TagLedgers["FI-101"].Markers["No Data"]);
+        Assert.Equal(1, r.TagLedgers["FI-101"].Markers["no reading"]);
         AssertLedgersBalance(r);
     }
 

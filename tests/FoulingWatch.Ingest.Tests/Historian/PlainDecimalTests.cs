@@ -66,7 +66,7 @@ public class PlainDecimalTests
     [InlineData("1e5")]
     [InlineData(" 12")]
     [InlineData("12 ")]
-    [InlineData("Bad")]
+    [InlineData("no reading")]
     [InlineData("1,5")]
     [InlineData("--1")]
     [InlineData("12:30")]
