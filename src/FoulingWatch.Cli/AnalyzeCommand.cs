@@ -63,7 +63,7 @@ public static class AnalyzeCommand
     {
         var currency = result.Configuration.Economics.Currency;
         var zone = result.Configuration.Site.TimeZone;
-        output.WriteLine($"Cleaning plan: {result.Plan.Method}.");
+        Wrapped(output, $"Cleaning plan: {result.Plan.Method}.");
         var p = new TextTable("rank", "exchanger", "action", "date", $"saving {currency}", "90 % interval", "P(saves)", "P(best)",
             "CO2 avoided t");
         foreach (var e in result.Plan.Entries)
@@ -79,12 +79,31 @@ public static class AnalyzeCommand
         output.Write(p);
         foreach (var e in result.Plan.Entries.Where(e => e.Warning is not null || e.Note.Length > 0))
         {
-            if (e.Warning is not null) output.WriteLine($"  {e.ExchangerId}: {e.Warning}");
-            if (e.Note.Length > 0) output.WriteLine($"  {e.ExchangerId}: {e.Note}");
+            if (e.Warning is not null) Wrapped(output, $"{e.ExchangerId}: {e.Warning}", "  ");
+            if (e.Note.Length > 0) Wrapped(output, $"{e.ExchangerId}: {e.Note}", "  ");
         }
-        output.WriteLine($"Total expected saving of the plan: {result.Plan.TotalSaving.ToString("N0", CultureInfo.InvariantCulture)} {currency}, " +
-                         "against running each exchanger to its limit (or never cleaning where no limit applies), over three years.");
-        output.WriteLine(Caution);
+        Wrapped(output, $"Total expected saving of the plan: {result.Plan.TotalSaving.ToString("N0", CultureInfo.InvariantCulture)} {currency}, " +
+                        "against running each exchanger to its limit (or never cleaning where no limit applies), over three years.");
+        Wrapped(output, Caution);
+    }
+
+    public const int ConsoleWidth = 120;
+
+    /// <summary>Writes text word-wrapped to <see cref="ConsoleWidth"/> columns, left-aligned, continuation lines indented.</summary>
+    public static void Wrapped(TextWriter output, string text, string indent = "")
+    {
+        var line = new System.Text.StringBuilder(indent);
+        foreach (var word in text.Split(' '))
+        {
+            if (line.Length > indent.Length && line.Length + 1 + word.Length > ConsoleWidth)
+            {
+                output.WriteLine(line.ToString());
+                line.Clear().Append(indent).Append("    ");
+            }
+            else if (line.Length > indent.Length && !line.ToString().EndsWith("    ", StringComparison.Ordinal)) line.Append(' ');
+            line.Append(word);
+        }
+        output.WriteLine(line.ToString());
     }
 
     public const string Caution =

@@ -20,7 +20,11 @@ public static class DecisionText
             ForecastState.Reached => string.Create(CultureInfo.InvariantCulture,
                 $"LIMIT ALREADY PASSED (probability {f.ProbabilityReachedNow:P0}): clean at the earliest possible date"),
             ForecastState.AtLimit => string.Create(CultureInfo.InvariantCulture,
-                $"AT THE LIMIT within uncertainty (probability {f.ProbabilityReachedNow:P0} it is already reached)"),
+                $"AT THE LIMIT within uncertainty (probability {f.ProbabilityReachedNow:P0} it is already reached)") +
+                (chosen.Kind == "at-limit"
+                    ? string.Create(CultureInfo.InvariantCulture,
+                        $"; running on means an UNPLANNED STOP when it is reached (P50 {Date(f.Date, zone)}); it costs {M(d.UnplannedStopCost)} {d.Currency}")
+                    : ""),
             _ when chosen.Kind == "at-limit" => string.Create(CultureInfo.InvariantCulture,
                 $"UNPLANNED STOP needed when the limit is reached (P10 {Date(f.P10, zone)}, P50 {Date(f.Date, zone)}); it costs {M(d.UnplannedStopCost)} {d.Currency}"),
             _ when chosen.ProbabilityUnplannedStop >= 0.10 && f.P10 is { } p10 => string.Create(CultureInfo.InvariantCulture,
