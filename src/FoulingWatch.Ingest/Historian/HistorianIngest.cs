@@ -204,7 +204,9 @@ public static partial class HistorianIngest
             throw new IngestException(file, dialect.HeaderLine, null, $"no quality column '{source.QualityColumn}' in the header ({string.Join(", ", header)}); set {source.Path}.qualityColumn or remove it.");
 
         var good = new HashSet<string>(source.GoodQuality, StringComparer.OrdinalIgnoreCase);
-        var parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
+        // One parser per tag: the repeated autumn hour is resolved by each tag's own time order, so an export sorted by tag
+        // (every tag running through the hour in turn) gets both passes right for every tag, not only the first.
+        var parsers = new Dictionary<string, TimestampParser>(StringComparer.Ordinal);
         var decimalByte = (byte)dialect.DecimalSeparator;
         var markers = MarkerSet(source);
         var byName = channels.Values.Where(c => c.Reference.Source is null || c.Reference.Source == source.Id)
@@ -220,6 +222,8 @@ public static partial class HistorianIngest
             if (!foundIn.ContainsKey(c.Reference.Tag)) foundIn[c.Reference.Tag] = [];
             if (foundIn[c.Reference.Tag].Count == 0 || foundIn[c.Reference.Tag][^1] != file) foundIn[c.Reference.Tag].Add(file);
             var line = dialect.HeaderLine - 1 + reader.LineNumber;
+            if (!parsers.TryGetValue(c.Reference.Tag, out var parser))
+                parsers[c.Reference.Tag] = parser = new TimestampParser(source.Timestamp, config.Site.TimeZone);
             var reason = TimeReason(parser, reader.GetSpan(tsColumn), windowStart, windowEnd, out var utc);
             if (reason is null && qualityColumn >= 0 && !good.Contains(Encoding.UTF8.GetString(reader.GetSpan(qualityColumn).TrimBlanks()))) reason = RejectReason.BadQuality;
             c.SeenTimestamps ??= new TimestampSet();
@@ -244,7 +248,7 @@ public static partial class HistorianIngest
             }
         }
         return new FileReport(file, dialect.EncodingName, dialect.Delimiter, dialect.DecimalSeparator, dialect.HeaderLine, dialect.MetadataRows,
-            rows, parser.AmbiguousAsDaylight, parser.AmbiguousAsStandard, header.ToList());
+            rows, parsers.Values.Sum(p => p.AmbiguousAsDaylight), parsers.Values.Sum(p => p.AmbiguousAsStandard), header.ToList());
     }
 
     /// <summary>Why a row's timestamp makes it unusable (unreadable, in the skipped hour, outside the window), or null with its UTC ticks.</summary>

@@ -135,6 +135,30 @@ public class HistorianIngestTests
         AssertLedgersBalance(r);
     }
 
+    // Reference: the IANA time-zone database through TimeZoneInfo (Europe/Amsterdam: 03:00 → 02:00 on 26 October 2025).
+    // A long export sorted by tag runs through the repeated hour once per tag: every tag gets both passes (daylight, then
+    // standard time), none is counted as a duplicate, and the six readings land in six distinct UTC half-hours.
+    [Fact]
+    public void A_long_export_sorted_by_tag_reads_the_repeated_autumn_hour_right_for_every_tag()
+    {
+        using var plant = new TestPlant().WithFixture("long-by-tag-dst.csv");
+        plant.WithConfig("""{ "id": "lab", "files": ["long-by-tag-dst.csv"], "layout": "long" }""", timeZone: "Europe/Amsterdam",
+            data: "\"interval\": \"30 min\", \"maxGap\": \"0 min\"");
+        var r = Ingest(plant);
+        foreach (var tag in new[] { "FI-101", "TI-101", "TI-102", "FI-201", "TI-201", "TI-202" })
+        {
+            var l = r.TagLedgers[tag];
+            Assert.Equal((6, 6), (l.Read, l.Used));
+            Assert.Equal(0, Rejected(l, RejectReason.Duplicate));
+        }
+        var file = Assert.Single(r.Files);
+        Assert.Equal((12, 12), (file.AmbiguousLocalTimesAsDaylight, file.AmbiguousLocalTimesAsStandard));
+        // 01:30 CEST = 23:30Z … 03:00 CET = 02:00Z: six half-hours 23:30Z to 02:00Z, each holding one reading
+        var first = (int)((new DateTimeOffset(2025, 10, 25, 23, 30, 0, TimeSpan.Zero) - r.GridStart).Ticks / r.Interval.Ticks);
+        var kelvin = Enumerable.Range(first, 6).Select(k => Math.Round(r.Series["TI-101"][k] - 273.15, 9));
+        Assert.Equal([201.0, 202, 203, 204, 205, 206], kelvin);
+    }
+
     // Reference: the IANA time-zone database through TimeZoneInfo. Europe/Amsterdam 2025: clocks go 02:00 → 03:00 on
     // 30 March and 03:00 → 02:00 on 26 October.
     [Fact]
