@@ -37,7 +37,7 @@ public static class PlantAnalysis
             progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest);
             var current = Current(history);
-            var trend = TrendAnalysis.Run(history, config.ShutdownWindows);
+            var trend = TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone);
             results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));
         }
         var plan = FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(), config.ShutdownWindows,

@@ -33,7 +33,7 @@ public static class AnalyzeCommand
             var note = x.History.Refusal ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance, "0.000000"), F(c.FoulingResistanceSigma, "0.000000"),
-                F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast),
+                F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast, config.Site.TimeZone),
                 (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note);
         }
         output.Write(t);
@@ -110,16 +110,16 @@ public static class AnalyzeCommand
         "Caution: advice only; results depend on instrument quality. Cleaning, isolation and operating changes of pressure " +
         "equipment follow site procedures, local codes and licensed engineering practice.";
 
-    private static string LimitText(Analysis.Trends.LimitForecast? f) => f switch
+    private static string LimitText(Analysis.Trends.LimitForecast? f, TimeZoneInfo zone) => f switch
     {
         null => "—",
         { AlreadyReached: true } => "reached",
         { State: Analysis.Trends.ForecastState.AtLimit } => $"at limit ({f.ProbabilityReachedNow * 100:0} %)",
         { BeyondHorizon: true } => "beyond horizon",
-        _ => $"{D(f.P10)} … {D(f.Date)} … {D(f.P90)}",
+        _ => $"{D(f.P10, zone)} … {D(f.Date, zone)} … {D(f.P90, zone)}",
     };
 
-    private static string D(DateTimeOffset? t) => t is { } v ? v.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "later";
+    private static string D(DateTimeOffset? t, TimeZoneInfo zone) => t is null ? "later" : DecisionText.Date(t, zone);
 
     /// <summary>A one-line progress bar for an interactive terminal: "[#######.........]  45 %  reading file.csv".</summary>
     public static string ProgressLine(string stage, double fraction)

@@ -45,7 +45,9 @@ public static class LimitForecasting
         return c;
     }
 
-    public static LimitForecast? Forecast(ExchangerHistory history, FoulingCycle cycle, JointDraws draws, IReadOnlyList<ShutdownWindow> windows)
+    /// <param name="zone">The site's time zone: dates a person reads are the site's calendar dates.</param>
+    public static LimitForecast? Forecast(ExchangerHistory history, FoulingCycle cycle, JointDraws draws, IReadOnlyList<ShutdownWindow> windows,
+        TimeZoneInfo zone)
     {
         if (TrendAnalysis.Limit(history) is not { } limit) return null;
         var (l, source) = limit;
@@ -70,11 +72,11 @@ public static class LimitForecasting
             .Select(w => new WindowRisk(w.Name, w.Start, Fraction(c => c < cycle.Days(w.Start)))).ToList();
         var f = new LimitForecast(l, source, state, At(0.5), At(0.05), At(0.95), At(0.10), At(0.90), reachedNow, beyond, now, horizon,
             risks, "");
-        var statement = Statement(f, Laws(cycle));
+        var statement = Statement(f, Laws(cycle), zone);
         var lastData = history.Samples.Count > 0 ? history.Samples[^1].Timestamp : cycle.End;
         if ((lastData - cycle.Points[^1].Day).TotalDays > 7)
             statement += FormattableString.Invariant(
-                $"; note: the last usable day is {cycle.Points[^1].Day:yyyy-MM-dd}, {(lastData - cycle.Points[^1].Day).TotalDays:0} days before the end of the data — see the sample statuses and the sensor check");
+                $"; note: the last usable day is {Economics.DecisionText.Date(cycle.Points[^1].Day, zone)}, {(lastData - cycle.Points[^1].Day).TotalDays:0} days before the end of the data — see the sample statuses and the sensor check");
         return f with { Statement = statement };
     }
 
@@ -82,10 +84,9 @@ public static class LimitForecasting
         .Where(c => c.AkaikeWeight >= 0.005).OrderByDescending(c => c.AkaikeWeight)
         .Select(c => FormattableString.Invariant($"{c.Model.Key} {c.AkaikeWeight:P0}")));
 
-    private static string D(DateTimeOffset? d) => d is { } v ? v.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture) : "beyond the horizon";
-
-    private static string Statement(LimitForecast f, string laws)
+    private static string Statement(LimitForecast f, string laws, TimeZoneInfo zone)
     {
+        string D(DateTimeOffset? d) => Economics.DecisionText.Date(d, zone);
         var limit = FormattableString.Invariant($"{f.Limit:0.00e0} m2K/W");
         return f.State switch
         {

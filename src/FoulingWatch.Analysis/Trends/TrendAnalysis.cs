@@ -53,7 +53,8 @@ public static class TrendAnalysis
     public const string ThresholdNote =
         "threshold (deposition minus removal, Ebert & Panchal 1995 family) model not fitted: it needs tube velocity or Reynolds number and film temperature, which the configuration does not give";
 
-    public static TrendResult Run(ExchangerHistory history, IReadOnlyList<ShutdownWindow>? windows = null)
+    /// <param name="zone">The site's time zone for dates in statements (UTC when not given).</param>
+    public static TrendResult Run(ExchangerHistory history, IReadOnlyList<ShutdownWindow>? windows = null, TimeZoneInfo? zone = null)
     {
         var x = history.Exchanger;
         var daily = DailyFouling.Resample(history.Samples);
@@ -90,7 +91,7 @@ public static class TrendAnalysis
         var spread = current?.Chosen is null ? 1
             : ForecastDiscrepancy.Factor(p => T(current.Start, p), current.Points, pts => FitAll(current.Start, pts, null));
         var draws = current?.Chosen is null ? null : JointDraws.Draw(current.Candidates, SystematicSigma(current), seed, spread);
-        var forecast = current is null || draws is null ? null : LimitForecasting.Forecast(history, current, draws, windows ?? []);
+        var forecast = current is null || draws is null ? null : LimitForecasting.Forecast(history, current, draws, windows ?? [], zone ?? TimeZoneInfo.Utc);
         return new TrendResult(daily, cycles, effects, forecast, rate, thresholdNote, draws);
     }
 
