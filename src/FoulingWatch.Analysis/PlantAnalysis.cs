@@ -35,7 +35,8 @@ public static class PlantAnalysis
         {
             var x = config.Exchangers[i];
             progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
-            var history = BackCalculator.Run(x, ingest);
+            var history = BackCalculator.Run(x, ingest,
+                OperatingStateSettings.Default with { FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter });
             var current = Current(history);
             var trend = TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone);
             results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));

@@ -7,9 +7,10 @@ namespace FoulingWatch.Analysis.BackCalculation;
 /// <param name="SteadyWindow">Trailing window of the steady-state test.</param>
 /// <param name="SteadyFlowBand">Largest (max − min)/mean of each flow inside the window.</param>
 /// <param name="SteadyTemperatureBand">Largest max − min of each inlet temperature inside the window, K.</param>
-public sealed record OperatingStateSettings(TimeSpan SteadyWindow, double SteadyFlowBand, double SteadyTemperatureBand)
+/// <param name="FrozenAfter">A measurement holding one value this long is frozen (zero: no check).</param>
+public sealed record OperatingStateSettings(TimeSpan SteadyWindow, double SteadyFlowBand, double SteadyTemperatureBand, TimeSpan FrozenAfter)
 {
-    public static OperatingStateSettings Default { get; } = new(TimeSpan.FromHours(1), 0.10, 3.0);
+    public static OperatingStateSettings Default { get; } = new(TimeSpan.FromHours(1), 0.10, 3.0, DataSettings.DefaultFrozenAfter);
 }
 
 /// <summary>One analysed instant of one exchanger.</summary>
@@ -49,6 +50,9 @@ public static class BackCalculator
         var coldReference = x.Cold.DesignFlow ?? Percentile(series[Measurement.ColdFlow], 0.9);
         var window = Math.Max(1, (int)(settings.SteadyWindow.Ticks / data.Interval.Ticks));
 
+        var frozenRun = settings.FrozenAfter > TimeSpan.Zero ? (int)Math.Ceiling(settings.FrozenAfter.Ticks / (double)data.Interval.Ticks) : 0;
+        var frozen = frozenRun > 0 ? FrozenValues.Mark(series, n, Math.Max(2, frozenRun)) : Enumerable.Repeat(-1, n).ToArray();
+        var tags = new[] { x.Hot.Flow, x.Hot.Inlet, x.Hot.Outlet, x.Cold.Flow, x.Cold.Inlet, x.Cold.Outlet };
         var evaluations = new SampleEvaluation[n];
         var status = new SampleStatus[n];
         Parallel.For(0, n, k =>
@@ -67,6 +71,16 @@ public static class BackCalculator
             {
                 status[k] = SampleStatus.Downtime;
                 evaluations[k] = new SampleEvaluation { Status = SampleStatus.Downtime, Measurements = m };
+                return;
+            }
+            if (frozen[k] >= 0)
+            {
+                status[k] = SampleStatus.Frozen;
+                evaluations[k] = new SampleEvaluation
+                {
+                    Status = SampleStatus.Frozen, Measurements = m,
+                    Detail = $"{tags[frozen[k]].Tag} held one value for at least {settings.FrozenAfter.TotalHours:0.#} h",
+                };
                 return;
             }
             var e = evaluator.Evaluate(m, pHot, pCold, reconcile: true);

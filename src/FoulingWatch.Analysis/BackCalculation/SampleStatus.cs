@@ -20,6 +20,9 @@ public enum SampleStatus
     PropertyRange,
     /// <summary>A stream shows no heat transfer in the expected direction (hot side not cooling).</summary>
     NoDuty,
+    /// <summary>A measurement held one value for longer than <c>data.frozenAfter</c> while the exchanger ran: a stuck
+    /// transmitter or a historian repeating its last good value.</summary>
+    Frozen,
 }
 
 public static class SampleStatusText
@@ -35,6 +38,7 @@ public static class SampleStatusText
         SampleStatus.CorrectionUndefined => "correction-undefined",
         SampleStatus.PropertyRange => "property-range",
         SampleStatus.NoDuty => "no-duty",
+        SampleStatus.Frozen => "frozen",
         _ => s.ToString().ToLowerInvariant(),
     };
 

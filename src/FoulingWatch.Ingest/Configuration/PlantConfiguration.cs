@@ -24,12 +24,18 @@ public sealed record WatchSettings(string DropFolder, string Store, string Out, 
 public sealed record SiteSettings(string Name, TimeZoneInfo TimeZone, double AtmospherePascals);
 
 /// <summary>Where the historian exports are and how they are aligned: grid interval, longest gap bridged, analysis window [start, end).</summary>
+/// <param name="FrozenAfter">A measurement holding one value this long while the exchanger runs is taken as frozen
+/// (default 2 h); zero turns the check off.</param>
 public sealed record DataSettings(
     IReadOnlyList<HistorianSource> Sources,
     TimeSpan Interval,
     TimeSpan MaxGap,
     DateTimeOffset? WindowStart,
-    DateTimeOffset? WindowEnd);
+    DateTimeOffset? WindowEnd,
+    TimeSpan? FrozenAfter = null)
+{
+    public static readonly TimeSpan DefaultFrozenAfter = TimeSpan.FromHours(2);
+}
 
 public enum HistorianLayout { Wide, Long }
 

@@ -117,8 +117,10 @@ public static class PlantConfigurationReader
             if (start is not null && end is not null && end <= start) w.Error("end", "must be after window.start.");
             w.Done();
         }
+        var frozen = n.Quantity("frozenAfter", Dimension.Duration, minSi: 0, maxSi: 365 * 86400.0);
         n.Done();
-        return new DataSettings(sources, TimeSpan.FromSeconds(interval), TimeSpan.FromSeconds(maxGap), start, end);
+        return new DataSettings(sources, TimeSpan.FromSeconds(interval), TimeSpan.FromSeconds(maxGap), start, end,
+            frozen is { } f ? TimeSpan.FromSeconds(f) : null);
     }
 
     private static HistorianSource? ReadSource(JsonNode s, string baseDir, bool requireFiles)
