@@ -168,3 +168,18 @@ public class ProgressLineTests
         Assert.Equal(90, AnalyzeCommand.ProgressLine(new string('x', 200), 1).Length);
     }
 }
+
+public class PlanWriterTests
+{
+    // OWASP, "CSV Injection": a text cell beginning with '=', '+', '-' or '@' is written so that a spreadsheet shows it
+    // instead of evaluating it; quoting follows RFC 4180.
+    [Theory]
+    [InlineData("=HYPERLINK(\"x\")", "\"'=HYPERLINK(\"\"x\"\")\"")]
+    [InlineData("+1", "'+1")]
+    [InlineData("-cleaning", "'-cleaning")]
+    [InlineData("@SUM(A1)", "'@SUM(A1)")]
+    [InlineData("E-101, crude", "\"E-101, crude\"")]
+    [InlineData("plain", "plain")]
+    public void Text_cells_cannot_become_spreadsheet_formulas(string text, string cell) =>
+        Assert.Equal(cell, Reporting.Results.PlanWriter.Quote(text));
+}

@@ -163,6 +163,14 @@ public sealed record ExchangerConfiguration(
     EconomicsSettings? Economics,
     ThresholdSettings? Threshold = null)
 {
+    /// <summary>The exchanger's result folder name: letters, digits, '-', '_' and '.' kept, anything else '_'; a name that
+    /// starts with '.' (such as "..") gets a leading '_', so no id can point outside the results folder.</summary>
+    public static string FolderNameOf(string id)
+    {
+        var name = string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
+        return name.Length == 0 || name[0] == '.' ? "_" + name : name;
+    }
+
     public StreamConfiguration Tube => Hot.Side == ExchangerSide.Tube ? Hot : Cold;
     public StreamConfiguration Shell => Hot.Side == ExchangerSide.Shell ? Hot : Cold;
     public IEnumerable<TagReference> Tags()

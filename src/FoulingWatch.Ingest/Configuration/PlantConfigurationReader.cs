@@ -51,14 +51,22 @@ public static class PlantConfigurationReader
             var windows = root.Array("shutdownWindows").Select(w => ReadWindow(root, w.Element, w.Path, site)).OfType<ShutdownWindow>().ToList();
             var exchangers = new List<ExchangerConfiguration>();
             var ids = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+            var folders = new Dictionary<string, string>(StringComparer.OrdinalIgnoreCase);
             foreach (var (e, path) in root.Array("exchangers", required: true))
             {
                 var node = root.AsObject(e, path);
                 if (node is null) continue;
                 var x = ReadExchanger(node, site, economics);
                 if (x is null) continue;
+                var folder = ExchangerConfiguration.FolderNameOf(x.Id);
                 if (!ids.Add(x.Id)) node.Error("id", $"'{x.Id}' is used by another exchanger; ids must be unique.");
-                else exchangers.Add(x);
+                else if (folders.TryGetValue(folder, out var other))
+                    node.Error("id", $"'{x.Id}' and '{other}' would share the result folder '{folder}'; make the ids differ in letters or digits.");
+                else
+                {
+                    folders[folder] = x.Id;
+                    exchangers.Add(x);
+                }
             }
             if (exchangers.Count == 0 && !errors.Any(er => er.Path.StartsWith("exchangers", StringComparison.Ordinal)))
                 root.Error("exchangers", "is empty; describe at least one exchanger.");

@@ -37,6 +37,12 @@ public static class PlanWriter
         AtomicFile.WriteAllText(path, sb.ToString());
     }
 
-    private static string Quote(string? text) =>
-        string.IsNullOrEmpty(text) ? "" : text.IndexOfAny([',', '"', '\n']) >= 0 ? $"\"{text.Replace("\"", "\"\"")}\"" : text;
+    /// <summary>A text cell, quoted as RFC 4180 needs; a text starting with '=', '+', '-', '@', tab or CR gets a leading
+    /// apostrophe so that a spreadsheet shows it rather than evaluating it (OWASP, "CSV Injection").</summary>
+    public static string Quote(string? text)
+    {
+        if (string.IsNullOrEmpty(text)) return "";
+        if (text[0] is '=' or '+' or '-' or '@' or '\t' or '\r') text = "'" + text;
+        return text.IndexOfAny([',', '"', '\n', '\r']) >= 0 ? $"\"{text.Replace("\"", "\"\"")}\"" : text;
+    }
 }

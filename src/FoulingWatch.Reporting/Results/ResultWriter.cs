@@ -50,7 +50,7 @@ public static class ResultWriter
     }
 
     /// <summary>A file-system-safe folder name for an exchanger id.</summary>
-    public static string SafeName(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
+    public static string SafeName(string id) => Ingest.Configuration.ExchangerConfiguration.FolderNameOf(id);
 
     public static object Summary(PlantResult r) => new
     {

@@ -207,3 +207,27 @@ public class DecisionSettingsTests
         Assert.Equal("80 % is out of range; use 0 % to 50 %.", e.Message);
     }
 }
+
+public class ResultFolderTests
+{
+    // An id cannot point outside the results folder, and two ids that would share a folder are a configuration error.
+    [Theory]
+    [InlineData("..", "_..")]
+    [InlineData(".hidden", "_.hidden")]
+    [InlineData("E/101", "E_101")]
+    [InlineData("E-101", "E-101")]
+    public void Exchanger_ids_become_folder_names_inside_the_results(string id, string folder) =>
+        Assert.Equal(folder, ExchangerConfiguration.FolderNameOf(id));
+
+    [Fact]
+    public void Two_ids_sharing_a_result_folder_are_refused_with_the_key()
+    {
+        var one = TestPlant.Interchanger(id: "E/101");
+        var two = TestPlant.Interchanger(id: "E_101");
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }", one + ", " + two);
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[1].id", e.Path);
+        Assert.Equal("'E_101' and 'E/101' would share the result folder 'E_101'; make the ids differ in letters or digits.", e.Message);
+    }
+}
