@@ -63,6 +63,43 @@ internal sealed class BinAccumulator
         return _lastChunk;
     }
 
+    /// <summary>The number of values in each chunk of 4096 intervals that holds any (chunk index = bin >> 12).</summary>
+    public IEnumerable<(long Chunk, long Values)> ChunkValues() =>
+        _chunks.Select(kv => (kv.Key, kv.Value.Count.Sum(c => (long)c))).Where(c => c.Item2 > 0);
+
+    public const int ChunkShift = ChunkBits;
+
+    /// <summary>The first and last interval holding a value within chunks [fromChunk, toChunk], or null.</summary>
+    public (long First, long Last)? Extent(long fromChunk, long toChunk)
+    {
+        long first = long.MaxValue, last = long.MinValue;
+        foreach (var (key, chunk) in _chunks)
+        {
+            if (key < fromChunk || key > toChunk) continue;
+            for (var i = 0; i < chunk.Count.Length; i++)
+            {
+                if (chunk.Count[i] == 0) continue;
+                var bin = (key << ChunkBits) + i;
+                first = Math.Min(first, bin);
+                last = Math.Max(last, bin);
+            }
+        }
+        return first == long.MaxValue ? null : (first, last);
+    }
+
+    /// <summary>Number of values in intervals outside [firstBin, lastBin].</summary>
+    public long ValuesOutside(long firstBin, long lastBin)
+    {
+        long n = 0;
+        foreach (var (key, chunk) in _chunks)
+            for (var i = 0; i < chunk.Count.Length; i++)
+            {
+                var bin = (key << ChunkBits) + i;
+                if (chunk.Count[i] > 0 && (bin < firstBin || bin > lastBin)) n += chunk.Count[i];
+            }
+        return n;
+    }
+
     /// <summary>Mean per interval over [firstBin, firstBin + count); NaN where the interval holds no value.</summary>
     public double[] Means(long firstBin, int count)
     {

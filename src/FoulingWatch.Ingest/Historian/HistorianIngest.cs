@@ -107,10 +107,16 @@ public static partial class HistorianIngest
         }
         else
         {
-            var withData = channels.Values.Where(c => !c.Bins.IsEmpty).ToList();
-            first = windowStart is not null ? windowStart.Value / interval : withData.Count == 0 ? 0 : withData.Min(c => c.Bins.MinimumBin);
-            last = windowEnd is not null ? (windowEnd.Value - 1) / interval : withData.Count == 0 ? 0 : withData.Max(c => c.Bins.MaximumBin);
+            var (bulkFirst, bulkLast) = PlausibleSpan.Of(channels.Values.Select(c => c.Bins).ToList(), interval);
+            first = windowStart is not null ? windowStart.Value / interval : bulkFirst;
+            last = windowEnd is not null ? (windowEnd.Value - 1) / interval : bulkLast;
+            foreach (var c in channels.Values)
+                if (c.Bins.ValuesOutside(first, last) is var stray and > 0) c.Ledger.Reclassify(stray, RejectReason.OutsidePlausibleSpan);
         }
+        var budget = PlausibleSpan.MaximumValues / Math.Max(1, channels.Count);
+        if (last - first + 1 > budget)
+            throw new IngestException(allFiles.Count > 0 ? allFiles[0].File : config.File, null, null, FormattableString.Invariant(
+                $"the data span {(last - first + 1) * (double)interval / TimeSpan.TicksPerDay / 365.25:0.#} years at {config.Data.Interval.TotalMinutes:0.##}-minute intervals for {channels.Count} tags, more than this run holds ({budget:N0} intervals per tag); set data.window to the period to analyse, or a longer data.interval."));
         var count = (int)Math.Max(0, last - first + 1);
         var maxGapIntervals = (int)Math.Max(1, config.Data.MaxGap.Ticks / interval);
         // Each tag's means and gaps are its own: the tags are finished on all cores at once.
@@ -138,9 +144,9 @@ public static partial class HistorianIngest
         foreach (var t in config.Exchangers.SelectMany(x => x.Tags()).Select(t => t.Tag).Distinct()) bins[t] = new BinAccumulator();
         foreach (var (tag, ticks, value) in values)
             if (bins.TryGetValue(tag, out var b)) b.Add(ticks / interval, value);
-        var withData = bins.Values.Where(b => !b.IsEmpty).ToList();
-        var first = config.Data.WindowStart is { } ws ? ws.UtcTicks / interval : withData.Count == 0 ? 0 : withData.Min(b => b.MinimumBin);
-        var last = config.Data.WindowEnd is { } we ? (we.UtcTicks - 1) / interval : withData.Count == 0 ? -1 : withData.Max(b => b.MaximumBin);
+        var (bulkFirst, bulkLast) = PlausibleSpan.Of(bins.Values.ToList(), interval);
+        var first = config.Data.WindowStart is { } ws ? ws.UtcTicks / interval : bulkFirst;
+        var last = config.Data.WindowEnd is { } we ? (we.UtcTicks - 1) / interval : bulkLast;
         var count = (int)Math.Max(0, last - first + 1);
         var maxGap = (int)Math.Max(1, config.Data.MaxGap.Ticks / interval);
         var series = new Dictionary<string, double[]>(StringComparer.Ordinal);
@@ -150,6 +156,8 @@ public static partial class HistorianIngest
             var means = b.Means(first, count);
             var ledger = new TagLedger(tag);
             if (ledgers.TryGetValue(tag, out var l)) ledger.Merge(l);
+            if (config.Data.WindowStart is null || config.Data.WindowEnd is null)
+                if (b.ValuesOutside(first, last) is var stray and > 0) ledger.Reclassify(stray, RejectReason.OutsidePlausibleSpan);
             (ledger.IntervalsWithData, ledger.IntervalsBridged, ledger.IntervalsMissing) = GapBridge.Bridge(means, maxGap);
             series[tag] = means;
             outLedgers[tag] = ledger;

@@ -23,6 +23,9 @@ public enum RejectReason
     BadTimestamp,
     /// <summary>A local time inside the skipped spring hour, which no correct clock shows.</summary>
     NonexistentLocalTime,
+    /// <summary>The timestamp lies far from the bulk of the data (a stray row dated years away), beyond a gap of more than
+    /// two years; the grid follows the bulk of the data, not the stray row.</summary>
+    OutsidePlausibleSpan,
 }
 
 public static class RejectReasons
@@ -41,6 +44,7 @@ public static class RejectReasons
         RejectReason.OutsideWindow => "outside-window",
         RejectReason.BadTimestamp => "bad-timestamp",
         RejectReason.NonexistentLocalTime => "nonexistent-local-time",
+        RejectReason.OutsidePlausibleSpan => "outside-plausible-span",
         _ => r.ToString(),
     };
 }
