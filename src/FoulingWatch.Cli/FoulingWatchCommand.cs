@@ -108,5 +108,16 @@ public static class FoulingWatchCommand
         catch (QuantityOutOfRangeException ex) { error.WriteLine(ex.Message); return DataError; }
         catch (IOException ex) { error.WriteLine($"cannot read or write a file: {ex.Message}"); return DataError; }
         catch (UnauthorizedAccessException ex) { error.WriteLine($"no permission: {ex.Message}"); return DataError; }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            // Anything else is a defect of ours, not of the input: say so in one line; the trace only on request.
+            error.WriteLine($"FoulingWatch stopped on an unexpected error ({ex.GetType().Name}: {ex.Message}). Please report it with " +
+                            $"the command and its input files{(Environment.GetEnvironmentVariable(VerboseVariable) == "1" ? "" : $"; set {VerboseVariable}=1 to print the details")}.");
+            if (Environment.GetEnvironmentVariable(VerboseVariable) == "1") error.WriteLine(ex);
+            return DataError;
+        }
     }
+
+    /// <summary>Set to 1 to print the stack trace of an unexpected error.</summary>
+    public const string VerboseVariable = "FOULINGWATCH_VERBOSE";
 }

@@ -183,3 +183,34 @@ public class PlanWriterTests
     public void Text_cells_cannot_become_spreadsheet_formulas(string text, string cell) =>
         Assert.Equal(cell, Reporting.Results.PlanWriter.Quote(text));
 }
+
+public class DamagedInputTests
+{
+    // A truncated gzip export (the copy stopped halfway) is a data error naming the file and what to do: exit 2, one line,
+    // no stack trace.
+    [Fact]
+    public void A_truncated_compressed_export_is_a_clear_data_error()
+    {
+        using var plant = new SamplePlantCopy();
+        var gz = Path.Combine(plant.Directory, "kestrel-utilities-2025-12_2026-11.csv.gz");
+        var bytes = File.ReadAllBytes(gz);
+        File.WriteAllBytes(gz, bytes[..(bytes.Length / 2)]);
+        var (code, _, error) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
+        Assert.Equal(2, code);
+        Assert.StartsWith("kestrel-utilities-2025-12_2026-11.csv.gz: the compressed stream is damaged or incomplete", error);
+        Assert.Contains("copy or export the file again, or unpack it and point the source at the CSV.", error);
+        Assert.DoesNotContain("   at ", error);
+    }
+
+    // Not a gzip at all behind a .gz name.
+    [Fact]
+    public void A_file_that_is_not_really_compressed_is_a_clear_data_error()
+    {
+        using var plant = new SamplePlantCopy();
+        File.WriteAllText(Path.Combine(plant.Directory, "kestrel-area1-2026-06_2026-11.csv.gz"), "Timestamp,FI-1011\n2026-06-01 00:00,1\n");
+        var (code, _, error) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
+        Assert.Equal(2, code);
+        Assert.Contains("kestrel-area1-2026-06_2026-11.csv.gz", error);
+        Assert.DoesNotContain("   at ", error);
+    }
+}

@@ -215,7 +215,7 @@ public static class ExportStream
     public static Stream Open(string file)
     {
         var fs = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite, 1 << 16, FileOptions.SequentialScan);
-        return file.EndsWith(".gz", StringComparison.OrdinalIgnoreCase) ? new System.IO.Compression.GZipStream(fs, System.IO.Compression.CompressionMode.Decompress) : fs;
+        return file.EndsWith(".gz", StringComparison.OrdinalIgnoreCase) ? new CompleteGzipStream(fs) : fs;
     }
 
     /// <summary>Opens the export positioned at a byte offset of its (decompressed) content.</summary>
@@ -244,4 +244,61 @@ public sealed class IngestException : Exception
     }
 
     public string File { get; }
+}
+
+/// <summary>Decompresses a gzip file and, at its end, checks that the data read match the size in the gzip trailer, so a
+/// file cut short (a copy still running, a broken transfer) is refused rather than half read.</summary>
+/// <remarks>RFC 1952, 2.3.1: the last four bytes of a member are ISIZE, the uncompressed size modulo 2³². The runtime's
+/// decompressor stops quietly at the end of a truncated file; this check catches it. A file of several concatenated
+/// members is checked against the last member's size only, which would refuse it; such exports are not known here.</remarks>
+internal sealed class CompleteGzipStream : Stream
+{
+    private readonly FileStream _file;
+    private readonly System.IO.Compression.GZipStream _gzip;
+    private long _read;
+    private bool _checked;
+
+    public CompleteGzipStream(FileStream file)
+    {
+        _file = file;
+        _gzip = new System.IO.Compression.GZipStream(file, System.IO.Compression.CompressionMode.Decompress);
+    }
+
+    public override int Read(byte[] buffer, int offset, int count) => Read(buffer.AsSpan(offset, count));
+
+    public override int Read(Span<byte> buffer)
+    {
+        var n = _gzip.Read(buffer);
+        _read += n;
+        if (n == 0 && buffer.Length > 0 && !_checked) Check();
+        return n;
+    }
+
+    private void Check()
+    {
+        _checked = true;
+        using var tail = new FileStream(_file.Name, FileMode.Open, FileAccess.Read, FileShare.ReadWrite);
+        if (tail.Length < 18) throw new InvalidDataException("the file is shorter than a gzip header and trailer");
+        tail.Position = tail.Length - 4;
+        Span<byte> size = stackalloc byte[4];
+        tail.ReadExactly(size);
+        if (BitConverter.ToUInt32(size) != (uint)_read)
+            throw new InvalidDataException($"the data end after {_read:N0} bytes, before the size its trailer states");
+    }
+
+    protected override void Dispose(bool disposing)
+    {
+        if (disposing) _gzip.Dispose();
+        base.Dispose(disposing);
+    }
+
+    public override bool CanRead => true;
+    public override bool CanSeek => false;
+    public override bool CanWrite => false;
+    public override long Length => throw new NotSupportedException();
+    public override long Position { get => _read; set => throw new NotSupportedException(); }
+    public override void Flush() { }
+    public override long Seek(long offset, SeekOrigin origin) => throw new NotSupportedException();
+    public override void SetLength(long value) => throw new NotSupportedException();
+    public override void Write(byte[] buffer, int offset, int count) => throw new NotSupportedException();
 }

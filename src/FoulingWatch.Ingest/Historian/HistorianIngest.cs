@@ -85,10 +85,19 @@ public static partial class HistorianIngest
             var signatures = new Dictionary<string, TimestampSet>(StringComparer.Ordinal);
             foreach (var file in source.Files)
             {
-                var dialect = FileDialectDetector.Detect(file, source);
-                var report = source.Layout == HistorianLayout.Wide
-                    ? ReadWide(file, source, dialect, config, channels, signatures, foundIn, interval, windowStart, windowEnd, sink)
-                    : ReadLong(file, source, dialect, config, channels, foundIn, interval, windowStart, windowEnd, ref otherRows, sink);
+                FileReport report;
+                try
+                {
+                    var dialect = FileDialectDetector.Detect(file, source);
+                    report = source.Layout == HistorianLayout.Wide
+                        ? ReadWide(file, source, dialect, config, channels, signatures, foundIn, interval, windowStart, windowEnd, sink)
+                        : ReadLong(file, source, dialect, config, channels, foundIn, interval, windowStart, windowEnd, ref otherRows, sink);
+                }
+                catch (Exception ex) when (ex is InvalidDataException or EndOfStreamException)
+                {
+                    throw new IngestException(file, null, null,
+                        $"the compressed stream is damaged or incomplete ({ex.Message}); copy or export the file again, or unpack it and point the source at the CSV.");
+                }
                 files.Add(report);
                 progress?.Report((file, ++done / (double)allFiles.Count));
             }
