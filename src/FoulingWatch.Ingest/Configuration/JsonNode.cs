@@ -134,6 +134,11 @@ internal sealed class JsonNode
             return null;
         }
         var si = resolved.ToSi(value);
+        if (!double.IsFinite(si))
+        {
+            _errors.Add(new ConfigurationError(path, string.Create(CultureInfo.InvariantCulture, $"'{v.GetRawText().Trim('"')}' is not a finite number; check the value.")));
+            return null;
+        }
         var belowMin = minSi is not null && (exclusiveMin ? si <= minSi : si < minSi);
         if (belowMin || (maxSi is not null && si > maxSi))
         {

@@ -198,10 +198,27 @@ public static class PlantConfigurationReader
         return null;
     }
 
+    /// <summary>Dates a configuration may name: years 1900 to 2199 (plant records and plans; anything else is a typing
+    /// error, and years near 0001 or 9999 cannot be shifted by a time-zone offset).</summary>
+    public const int FirstYear = 1900, LastYear = 2199;
+
     private static DateTimeOffset? ReadDate(JsonNode n, string key, SiteSettings? site, bool required = false)
+    {
+        var result = ReadAnyDate(n, key, site, required);
+        if (result is { } d && (d.Year < FirstYear || d.Year > LastYear))
+        {
+            n.Error(key, $"'{n.String(key)}' is outside the years {FirstYear} to {LastYear}; check the date.");
+            return null;
+        }
+        return result;
+    }
+
+    private static DateTimeOffset? ReadAnyDate(JsonNode n, string key, SiteSettings? site, bool required)
     {
         var text = n.String(key, required);
         if (text is null) return null;
+        if (DateTime.TryParse(text, CultureInfo.InvariantCulture, DateTimeStyles.None, out var probe) && (probe.Year < FirstYear || probe.Year > LastYear))
+            return new DateTimeOffset(DateTime.SpecifyKind(probe, DateTimeKind.Unspecified), TimeSpan.Zero);
         if (DateTimeOffset.TryParse(text, CultureInfo.InvariantCulture, DateTimeStyles.AssumeUniversal, out var dto) &&
             (text.Contains('+') || text.EndsWith('Z') || text.Count(c => c == '-') > 2))
             return dto.ToUniversalTime();

@@ -231,3 +231,18 @@ public class ResultFolderTests
         Assert.Equal("'E_101' and 'E/101' would share the result folder 'E_101'; make the ids differ in letters or digits.", e.Message);
     }
 }
+
+public class AbsurdValueTests
+{
+    // A quantity too large for a double and a date centuries away are configuration errors naming the key.
+    [Fact]
+    public void An_infinite_quantity_and_a_date_in_year_9999_are_refused_with_their_keys()
+    {
+        var x = TestPlant.Interchanger().Replace("\"250 m2\"", "\"1e400 m2\"");
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }",
+            x.Replace("\"clean\":", "\"maintenance\": [ { \"date\": \"9999-12-31\", \"action\": \"cleaned\" } ], \"clean\":"));
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].area" && e.Message == "'1e400 m2' is not a finite number; check the value.");
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].maintenance[0].date" && e.Message == "'9999-12-31' is outside the years 1900 to 2199; check the date.");
+    }
+}
