@@ -30,6 +30,7 @@ public static class CheckCommand
             return FoulingWatchCommand.Success;
         }
         output.WriteLine($"Configuration {Path.GetFileName(configPath)}: valid; site {config.Site.Name}, {config.Exchangers.Count} exchanger(s).");
+        foreach (var w in Warnings(config, File.ReadAllLines(configPath), ingest)) output.WriteLine("warning: " + w);
         output.WriteLine($"Grid: {ingest.IntervalCount} intervals of {ingest.Interval.TotalMinutes:0.#} min from {ingest.GridStart:yyyy-MM-dd HH:mm} UTC.");
         output.WriteLine();
         var files = new TextTable("file", "encoding", "delim", "decimal", "header line", "unit rows", "data rows", "DST repeated hr");
@@ -54,5 +55,28 @@ public static class CheckCommand
         }
         return FoulingWatchCommand.Success;
     }
-}
 
+    /// <summary>What the configuration still lacks for the whole job, each with its key: open CHECK marks, missing limits,
+    /// cleaning costs and pricing, and files whose every timestamp was refused.</summary>
+    public static IEnumerable<string> Warnings(PlantConfiguration config, IReadOnlyList<string> lines, IngestResult ingest)
+    {
+        var marks = lines.Select((l, i) => (Line: i + 1, Text: l)).Where(l => l.Text.Contains("CHECK", StringComparison.Ordinal)).ToList();
+        if (marks.Count > 0)
+            yield return $"{Path.GetFileName(config.File)}: {marks.Count} open CHECK mark(s) (line {string.Join(", ", marks.Select(m => m.Line))}); confirm each guess and remove its mark.";
+        var e = config.Economics;
+        var sitePriced = e.LostCoolingCostPerJoule is not null || (e.FuelPricePerJoule is not null && e.HeaterEfficiency is not null);
+        for (var i = 0; i < config.Exchangers.Count; i++)
+        {
+            var x = config.Exchangers[i];
+            if (x.Limits.FoulingResistance is null && x.Limits.MinimumDuty is null && x.Limits.MinimumColdOutlet is null)
+                yield return $"exchangers[{i}].limits: {x.Id} has no limit; the forecast and the cleaning plan need limits.foulingResistance, minimumDuty or minimumColdOutlet.";
+            if (x.Cleaning.Cost is null)
+                yield return $"exchangers[{i}].cleaning.cost: {x.Id} has no cleaning cost; the cleaning plan needs it (and cleaning.downtime).";
+            var priced = x.Economics is { } own ? own.LostCoolingCostPerJoule is not null || (own.FuelPricePerJoule is not null && own.HeaterEfficiency is not null) : sitePriced;
+            if (!priced)
+                yield return $"economics.fuelPrice: {x.Id} is not priced; give economics.fuelPrice and economics.heaterEfficiency (or lostCoolingCost for a cooler).";
+        }
+        foreach (var tag in ingest.TagLedgers.Values.Where(l => l.Read > 0 && l.Rejected[(int)RejectReason.BadTimestamp] == l.Read))
+            yield return $"{tag.Tag}: every one of its {tag.Read:N0} values has an unreadable timestamp; set the source's timestamp.format.";
+    }
+}

@@ -214,3 +214,26 @@ public class DamagedInputTests
         Assert.DoesNotContain("   at ", error);
     }
 }
+
+public class CheckWarningTests
+{
+    // check says, with the key, what the configuration still lacks for the whole job.
+    [Fact]
+    public void Check_warns_of_open_marks_and_missing_limits_and_cleaning_costs()
+    {
+        using var plant = new SamplePlantCopy();
+        var text = File.ReadAllText(plant.ConfigPath)
+            .Replace("\"limits\": { \"foulingResistance\": \"0.00076 m2K/W\" },", "")
+            .Replace("\"cleaning\": { \"cost\": \"38000 EUR\", \"downtime\": \"4 d\" },", "// CHECK: cleaning cost to come")
+            .Replace("\"fuelPrice\": \"9.5 EUR/GJ\",", "");
+        File.WriteAllText(plant.ConfigPath, text);
+        var line = Array.FindIndex(File.ReadAllLines(plant.ConfigPath), l => l.Contains("CHECK", StringComparison.Ordinal)) + 1;
+        var (code, output, _) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
+        Assert.Equal(0, code);
+        var warnings = output.Split('\n').Where(l => l.StartsWith("warning: ", StringComparison.Ordinal)).Select(l => l.TrimEnd('\r')).ToList();
+        Assert.Equal($"warning: plant.json: 1 open CHECK mark(s) (line {line}); confirm each guess and remove its mark.", warnings[0]);
+        Assert.Contains("warning: exchangers[0].limits: E-101 has no limit; the forecast and the cleaning plan need limits.foulingResistance, minimumDuty or minimumColdOutlet.", warnings);
+        Assert.Contains("warning: exchangers[0].cleaning.cost: E-101 has no cleaning cost; the cleaning plan needs it (and cleaning.downtime).", warnings);
+        Assert.Contains("warning: economics.fuelPrice: E-102 is not priced; give economics.fuelPrice and economics.heaterEfficiency (or lostCoolingCost for a cooler).", warnings);
+    }
+}
