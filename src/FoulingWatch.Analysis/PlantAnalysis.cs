@@ -46,6 +46,27 @@ public static class PlantAnalysis
         return new PlantResult(config, ingest, results, plan);
     }
 
+    /// <summary>Why no interval is usable, in words with the top reasons and what to change; null when some are usable.</summary>
+    public static string? NoUsableIntervals(IReadOnlyDictionary<string, int> counts)
+    {
+        if (counts.GetValueOrDefault("ok") > 0) return null;
+        var top = counts.Where(kv => kv.Key != "ok" && kv.Value > 0).OrderByDescending(kv => kv.Value).Take(3).ToList();
+        if (top.Count == 0) return "no interval to analyse: the grid is empty; check the data window and the exports";
+        static string Advice(string key) => key switch
+        {
+            "balance" => "check flow units and densities, fluid models and balanceTolerance",
+            "correction-undefined" or "temperature-cross" => "check the arrangement and which tags are inlets and outlets",
+            "downtime" => "check designFlow and downtimeFlowFraction",
+            "missing" => "check that all six tags have data in the same period",
+            "frozen" => "check the frozen transmitters, or data.frozenAfter",
+            "no-duty" => "check hot/cold assignment and swapped tags",
+            "property-range" => "check the fluid models' ranges and the pressures",
+            _ => "see the status column of timeseries.csv",
+        };
+        return "no usable interval: " + string.Join(", ", top.Select(kv => FormattableString.Invariant($"{kv.Value:N0} {kv.Key}"))) +
+               "; " + Advice(top[0].Key);
+    }
+
     public static IReadOnlyDictionary<string, int> StatusCounts(ExchangerHistory h)
     {
         var counts = SampleStatusText.All.ToDictionary(s => s.Key(), _ => 0);

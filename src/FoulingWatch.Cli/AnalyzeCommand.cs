@@ -30,7 +30,8 @@ public static class AnalyzeCommand
         foreach (var x in result.Exchangers)
         {
             var c = x.Current;
-            var note = x.History.Refusal ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
+            var note = PlantAnalysis.NoUsableIntervals(x.StatusCounts) ?? x.History.Refusal
+                       ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance, "0.000000"), F(c.FoulingResistanceSigma, "0.000000"),
                 F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast, config.Site.TimeZone),

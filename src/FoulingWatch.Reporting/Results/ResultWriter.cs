@@ -105,6 +105,7 @@ public static class ResultWriter
             {
                 analysed = x.History.Samples.Count,
                 by_status = x.StatusCounts,
+                no_usable_interval = PlantAnalysis.NoUsableIntervals(x.StatusCounts),
             },
             ledger = Ledger(r.Ingest.ExchangerLedger(x.History.Exchanger)),
         }),
