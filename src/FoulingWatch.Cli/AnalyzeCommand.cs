@@ -26,18 +26,23 @@ public static class AnalyzeCommand
         }
         if (quiet) return FoulingWatchCommand.Success;
         output.WriteLine($"{config.Site.Name}: {result.Exchangers.Count} exchangers, {result.Ingest.IntervalCount} intervals of {result.Ingest.Interval.TotalMinutes:0} min from {result.Ingest.GridStart:yyyy-MM-dd}.");
-        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "cleanliness", "Rf m2K/W", "± σ", "lost duty kW", "model", "limit P10 … P50 … P90", "note");
+        // Rf and its σ in units of 1e-4 m²K/W (one notation everywhere); notes go under the table so it fits 120 columns.
+        var t = new TextTable("exchanger", "usable", "U W/m2K", "U clean", "CF", "Rf e-4 m2K/W", "± σ", "lost kW", "model",
+            "limit P10…P50…P90");
+        var notes = new List<string>();
         foreach (var x in result.Exchangers)
         {
             var c = x.Current;
             var note = PlantAnalysis.NoUsableIntervals(x.StatusCounts) ?? x.History.Refusal
                        ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
+            note = (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note;
+            if (note.Length > 0) notes.Add($"{x.History.Exchanger.Id}: {note}");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
-                F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance, "0.000000"), F(c.FoulingResistanceSigma, "0.000000"),
-                F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast, config.Site.TimeZone),
-                (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note);
+                F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance * 1e4, "0.00"), F(c.FoulingResistanceSigma * 1e4, "0.00"),
+                F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast, config.Site.TimeZone));
         }
         output.Write(t);
+        foreach (var n in notes) Wrapped(output, n, "  ");
         output.WriteLine();
         WritePlan(result, output);
         output.WriteLine($"Results: {Path.GetFullPath(outDirectory)} (summary.json, plan.csv, <exchanger>/timeseries.csv, charts/)");
@@ -117,7 +122,7 @@ public static class AnalyzeCommand
         { AlreadyReached: true } => "reached",
         { State: Analysis.Trends.ForecastState.AtLimit } => $"at limit ({f.ProbabilityReachedNow * 100:0} %)",
         { BeyondHorizon: true } => "beyond horizon",
-        _ => $"{D(f.P10, zone)} … {D(f.Date, zone)} … {D(f.P90, zone)}",
+        _ => $"{D(f.P10, zone)}…{D(f.Date, zone)}…{D(f.P90, zone)}",
     };
 
     private static string D(DateTimeOffset? t, TimeZoneInfo zone) => t is null ? "later" : DecisionText.Date(t, zone);

@@ -237,3 +237,19 @@ public class CheckWarningTests
         Assert.Contains("warning: economics.fuelPrice: E-102 is not priced; give economics.fuelPrice and economics.heaterEfficiency (or lostCoolingCost for a cooler).", warnings);
     }
 }
+
+public class ConsoleWidthTests
+{
+    // The console summary and plan fit a 120-column terminal: no line longer than 120 characters.
+    [Fact]
+    public void Analyze_output_fits_120_columns()
+    {
+        using var plant = new SamplePlantCopy();
+        var (code, output, _) = SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out("w"));
+        Assert.Equal(0, code);
+        var lines = output.Split('\n').Select(l => l.TrimEnd('\r')).Where(l => !l.StartsWith("Results: ", StringComparison.Ordinal)
+            && !l.StartsWith("Report: ", StringComparison.Ordinal)).ToList();
+        Assert.Contains(lines, l => l.StartsWith("exchanger  usable", StringComparison.Ordinal));
+        Assert.All(lines, l => Assert.True(l.Length <= 120, $"{l.Length} columns: {l}"));
+    }
+}
