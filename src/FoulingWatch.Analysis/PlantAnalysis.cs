@@ -36,7 +36,8 @@ public static class PlantAnalysis
             var x = config.Exchangers[i];
             progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
             var history = BackCalculator.Run(x, ingest,
-                OperatingStateSettings.Default with { FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter });
+                OperatingStateSettings.Default with { FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter },
+                config.Site.TimeZone);
             var current = Current(history);
             var trend = TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone);
             results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));
@@ -59,6 +60,7 @@ public static class PlantAnalysis
             "downtime" => "check designFlow and downtimeFlowFraction",
             "missing" => "check that all six tags have data in the same period",
             "frozen" => "check the frozen transmitters, or data.frozenAfter",
+            "drift" => "check or recalibrate the drifting instrument named under sensors",
             "no-duty" => "check hot/cold assignment and swapped tags",
             "property-range" => "check the fluid models' ranges and the pressures",
             _ => "see the status column of timeseries.csv",

@@ -35,6 +35,11 @@ public static class AnalyzeCommand
             var c = x.Current;
             var note = PlantAnalysis.NoUsableIntervals(x.StatusCounts) ?? x.History.Refusal
                        ?? (x.History.SensorCheck.LikelyFault ? $"check {x.History.SensorCheck.Tag}; no forecast" : "");
+            if (x.History.Drift is { } drift)
+                note = (drift.SingleSensor
+                    ? $"drift on {string.Join(" or ", drift.Suspects)} from {SiteCalendar.Date(drift.Onset, config.Site.TimeZone)}"
+                    : $"heat balance changed from {SiteCalendar.Date(drift.Onset, config.Site.TimeZone)}, no single sensor explains it")
+                    + "; later data not used" + (note.Length > 0 ? "; " + note : "");
             note = (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note;
             if (note.Length > 0) notes.Add($"{x.History.Exchanger.Id}: {note}");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",

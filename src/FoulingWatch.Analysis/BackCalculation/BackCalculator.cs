@@ -30,13 +30,15 @@ public sealed record SensorCheck(int Samples, double FractionFailingGlobalTest, 
     double? ExplainedFraction, bool LikelyFault, string Statement);
 
 /// <summary>The back-calculated history of one exchanger.</summary>
+/// <param name="Drift">A lasting change of the heat balance (an instrument drifting) found over the whole record, or null.</param>
 public sealed record ExchangerHistory(ExchangerConfiguration Exchanger, IReadOnlyList<SampleResult> Samples, CleanReferenceReport CleanReference,
-    SensorCheck SensorCheck, string? Refusal);
+    SensorCheck SensorCheck, string? Refusal, BalanceDrift? Drift = null);
 
 /// <summary>Turns the aligned historian data of an exchanger into per-sample duty, U, clean U, Rf with σ, and lost duty.</summary>
 public static class BackCalculator
 {
-    public static ExchangerHistory Run(ExchangerConfiguration x, IngestResult data, OperatingStateSettings? settings = null)
+    public static ExchangerHistory Run(ExchangerConfiguration x, IngestResult data, OperatingStateSettings? settings = null,
+        TimeZoneInfo? zone = null)
     {
         settings ??= OperatingStateSettings.Default;
         var n = data.IntervalCount;
@@ -92,10 +94,13 @@ public static class BackCalculator
             status[k] = e.Status;
         });
 
+        var drift = BalanceDriftDetector.Detect(data, evaluations, evaluator, tags.Select(t => t.Tag).ToArray(), zone);
+        if (drift is not null) MarkDrift(data, evaluations, status, drift, zone ?? TimeZoneInfo.Utc);
+
         var (clean, cleanReport) = CleanModel(x, data, evaluations, evaluator);
         if (clean is null)
             return new ExchangerHistory(x, Build(data, evaluations, new double[n]), cleanReport, SensorCheckOf(x, data, evaluations, evaluator),
-                $"no clean-U reference: {cleanReport.Refusal}");
+                $"no clean-U reference: {cleanReport.Refusal}", drift);
 
         var systematic = new double[n];
         Parallel.For(0, n, k =>
@@ -113,7 +118,23 @@ public static class BackCalculator
         });
         var random = RandomPart.PerSample(data, evaluations);
         return new ExchangerHistory(x, Build(data, evaluations, systematic, random), cleanReport,
-            SensorCheckOf(x, data, evaluations, evaluator), null);
+            SensorCheckOf(x, data, evaluations, evaluator), null, drift);
+    }
+
+    /// <summary>Samples from the drift onset that would otherwise be judged (ok, balance, unsteady) get the status drift.</summary>
+    private static void MarkDrift(IngestResult data, SampleEvaluation[] evaluations, SampleStatus[] status, BalanceDrift drift,
+        TimeZoneInfo zone)
+    {
+        var detail = drift.SingleSensor
+            ? $"after the onset {SiteCalendar.Date(drift.Onset, zone)} of a drift on {drift.Tag}"
+            : $"after the onset {SiteCalendar.Date(drift.Onset, zone)} of a heat-balance change";
+        for (var k = 0; k < evaluations.Length; k++)
+        {
+            if (data.IntervalStart(k) < drift.Onset) continue;
+            if (evaluations[k].Status is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
+            evaluations[k] = evaluations[k] with { Status = SampleStatus.Drift, Detail = detail };
+            status[k] = SampleStatus.Drift;
+        }
     }
 
     private static List<SampleResult> Build(IngestResult data, SampleEvaluation[] evaluations, double[] systematic, double[]? random = null)
@@ -174,7 +195,7 @@ public static class BackCalculator
         if (start is null)
             return (null, new CleanReferenceReport("baseline", "Wilson-plot baseline", "no usable sample to calibrate on", 0, null, null, null));
         var end = start.Value + b.Duration;
-        var rows = new List<(double Y, double Xt, double Xs, double W)>();
+        var rows = new List<WilsonRow>();
         var nt = tubePhase ? 0 : b.TubeExponent;
         var ns = shellPhase ? 0 : b.ShellExponent;
         for (var k = 0; k < evaluations.Length; k++)
@@ -184,7 +205,7 @@ public static class BackCalculator
             if (t < start || t >= end || e.Status != SampleStatus.Ok || !(e.UActual > 0)) continue;
             var sigmaU = SigmaOfInverseU(evaluator, e);
             var w = sigmaU > 0 ? 1 / (sigmaU * sigmaU) : 1;
-            rows.Add((1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), w));
+            rows.Add(new WilsonRow(1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), (t - start.Value).TotalDays, w));
         }
         return WilsonPlot.Fit(rows, nt, ns, start.Value, end);
     }

@@ -23,6 +23,9 @@ public enum SampleStatus
     /// <summary>A measurement held one value for longer than <c>data.frozenAfter</c> while the exchanger ran: a stuck
     /// transmitter or a historian repeating its last good value.</summary>
     Frozen,
+    /// <summary>The sample lies after the onset of a lasting heat-balance change (an instrument drifting): its Rf would
+    /// carry the drift, so it is not used for fouling.</summary>
+    Drift,
 }
 
 public static class SampleStatusText
@@ -39,6 +42,7 @@ public static class SampleStatusText
         SampleStatus.PropertyRange => "property-range",
         SampleStatus.NoDuty => "no-duty",
         SampleStatus.Frozen => "frozen",
+        SampleStatus.Drift => "drift",
         _ => s.ToString().ToLowerInvariant(),
     };
 

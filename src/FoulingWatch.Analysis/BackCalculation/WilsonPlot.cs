@@ -2,13 +2,21 @@ using MathNet.Numerics.LinearAlgebra;
 
 namespace FoulingWatch.Analysis.BackCalculation;
 
-/// <summary>Calibrates a clean-U model from samples taken just after a cleaning by weighted least squares of 1/U on ṁ_t^−n_t and ṁ_s^−n_s (Wilson plot).</summary>
+/// <summary>One calibration sample: 1/U, the two flow regressors, days since the cleaning, and the weight 1/σ².</summary>
+public readonly record struct WilsonRow(double Y, double Xt, double Xs, double Days, double W);
+
+/// <summary>Calibrates a clean-U model from samples taken just after a cleaning by weighted least squares of 1/U on
+/// ṁ_t^−n_t, ṁ_s^−n_s and the days since the cleaning (Wilson plot with a fouling term).</summary>
 /// <remarks>
 /// Source: Wilson, E. E. (1915), "A basis for rational design of heat transfer apparatus", Trans. ASME 37, 47–82; the
-/// two-stream form as in Shah &amp; Sekulić (2003) §7.5 (from memory). Refusals: fewer than 20 samples; both
-/// regressors varying by less than 3 % (coefficient of variation) cannot separate the sides; regressors correlated
-/// beyond 0.95 cannot separate them either; a negative side coefficient is unphysical. Then a single constant
-/// 1/U (mean of the period) is used, and the report says so.
+/// two-stream form as in Shah &amp; Sekulić (2003) §7.5 (from memory). Deposits grow while the calibration runs: a term
+/// d·τ (τ days since the cleaning, d ≥ 0) takes them, so the intercept a is the clean value at the cleaning instead of
+/// the window's mean fouling spread over the film terms. The intercept (wall and any constant resistance) cannot be
+/// below a minimum (the wall resistance, or zero): a fit below it is redone with a fixed
+/// there (a bounded least-squares solution, the bound active). Refusals: fewer than 20 samples; both regressors
+/// varying by less than 3 % (coefficient of variation) cannot separate the sides; regressors correlated beyond 0.95
+/// cannot separate them either; a negative side coefficient is unphysical. Then a single constant clean 1/U (with the
+/// fouling term) is used, and the report says so.
 /// </remarks>
 public static class WilsonPlot
 {
@@ -16,8 +24,8 @@ public static class WilsonPlot
     public const double MinimumVariation = 0.03;
     public const double MaximumCorrelation = 0.95;
 
-    public static (ICleanUModel?, CleanReferenceReport) Fit(IReadOnlyList<(double Y, double Xt, double Xs, double W)> rows, double nt, double ns,
-        DateTimeOffset start, DateTimeOffset end)
+    public static (ICleanUModel?, CleanReferenceReport) Fit(IReadOnlyList<WilsonRow> rows, double nt, double ns,
+        DateTimeOffset start, DateTimeOffset end, double minimumIntercept = 0)
     {
         if (rows.Count < MinimumSamples)
             return (null, new CleanReferenceReport("baseline", "Wilson-plot baseline", $"only {rows.Count} usable samples between {start:yyyy-MM-dd} and {end:yyyy-MM-dd}; at least {MinimumSamples} are needed (lengthen clean.duration or set clean.start)", rows.Count, null, start, end));
@@ -37,48 +45,70 @@ public static class WilsonPlot
 
         if (useT || useS)
         {
-            var columns = new List<Func<(double Y, double Xt, double Xs, double W), double>> { _ => 1.0 };
-            if (useT) columns.Add(r => r.Xt);
-            if (useS) columns.Add(r => r.Xs);
-            var x = Matrix<double>.Build.Dense(rows.Count, columns.Count, (i, j) => columns[j](rows[i]) * Math.Sqrt(rows[i].W));
-            var y = Vector<double>.Build.Dense(rows.Count, i => rows[i].Y * Math.Sqrt(rows[i].W));
-            var beta = x.QR().Solve(y);
-            var a = beta[0];
-            var b = useT ? beta[1] : 0;
-            var c = useS ? beta[useT ? 2 : 1] : 0;
-            if (b >= 0 && c >= 0 && a > -0.5 * rows.Average(r => r.Y))
+            var fit = Solve(rows, useT, useS, minimumIntercept);
+            if (fit.B >= 0 && fit.C >= 0)
             {
-                var resid = Math.Sqrt(rows.Sum(r => Math.Pow(r.Y - (a + b * r.Xt + c * r.Xs), 2)) / Math.Max(1, rows.Count - columns.Count));
                 var sides = useT && useS ? "both sides" : useT ? "tube side only (shell flow steady)" : "shell side only (tube flow steady)";
-                var description = FormattableString.Invariant($"baseline (Wilson plot, {sides}) from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}: 1/U = {a:G4} + {b:G4}·ṁt^-{nt:0.##} + {c:G4}·ṁs^-{ns:0.##}");
-                var map = new List<int> { 0 };
-                if (useT) map.Add(1);
-                if (useS) map.Add(2);
-                var covariance = Covariance(x, y - x * beta, map);
-                return (new WilsonPlotCleanU(a, b, c, nt, ns, description, covariance),
-                    new CleanReferenceReport("baseline", description, null, rows.Count, resid, start, end));
+                var description = FormattableString.Invariant(
+                    $"baseline (Wilson plot, {sides}, fouling term {fit.D:G3} m2K/W per day{(fit.Bounded ? ", intercept held at its physical bound" : "")}) from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}: 1/U = {fit.A:G4} + {fit.B:G4}·ṁt^-{nt:0.##} + {fit.C:G4}·ṁs^-{ns:0.##}");
+                return (new WilsonPlotCleanU(fit.A, fit.B, fit.C, nt, ns, description, fit.Covariance),
+                    new CleanReferenceReport("baseline", description, null, rows.Count, fit.Residual, start, end));
             }
             note = "the fit gave a negative side resistance, which is unphysical";
         }
-        var mean = rows.Sum(r => r.W * r.Y) / rows.Sum(r => r.W);
-        var sd = Math.Sqrt(rows.Sum(r => Math.Pow(r.Y - mean, 2)) / Math.Max(1, rows.Count - 1));
-        var text = FormattableString.Invariant($"baseline: single constant clean U = {1 / mean:0.#} W/m2K (mean of {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}) because {note}; Rf then also moves with flow");
-        var meanCovariance = new double[3, 3];
-        meanCovariance[0, 0] = sd * sd / rows.Count * SerialInflation(rows.Select(r => r.Y - mean).ToArray());
-        return (new WilsonPlotCleanU(mean, 0, 0, nt, ns, text, meanCovariance),
-            new CleanReferenceReport("baseline-constant", text, null, rows.Count, sd, start, end));
+        var constant = Solve(rows, false, false, minimumIntercept);
+        var text = FormattableString.Invariant($"baseline: single constant clean U = {1 / constant.A:0.#} W/m2K (at the cleaning, from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}, fouling term {constant.D:G3} m2K/W per day) because {note}; Rf then also moves with flow");
+        return (new WilsonPlotCleanU(constant.A, 0, 0, nt, ns, text, constant.Covariance),
+            new CleanReferenceReport("baseline-constant", text, null, rows.Count, constant.Residual, start, end));
+    }
+
+    /// <summary>A weighted fit of 1/U = a + b·Xt + c·Xs + d·τ with the chosen side columns; d &lt; 0 (no fouling seen)
+    /// drops the fouling term, a below its bound fixes a there.</summary>
+    public static (double A, double B, double C, double D, bool Bounded, double[,] Covariance, double Residual) Solve(
+        IReadOnlyList<WilsonRow> rows, bool useT, bool useS, double minimumIntercept)
+    {
+        var useDays = Cv(rows.Select(r => r.Days + 1)) > 0;
+        var fit = Attempt(rows, useT, useS, useDays, null);
+        if (fit.D < 0) fit = Attempt(rows, useT, useS, useDays = false, null);
+        if (fit.A >= minimumIntercept) return fit;
+        fit = Attempt(rows, useT, useS, useDays, minimumIntercept);
+        return fit.D < 0 ? Attempt(rows, useT, useS, false, minimumIntercept) : fit;
+    }
+
+    private static (double A, double B, double C, double D, bool Bounded, double[,] Covariance, double Residual) Attempt(
+        IReadOnlyList<WilsonRow> rows, bool useT, bool useS, bool useDays, double? fixedIntercept)
+    {
+        var columns = new List<(int Slot, Func<WilsonRow, double> Value)>();
+        if (fixedIntercept is null) columns.Add((0, _ => 1.0));
+        if (useT) columns.Add((1, r => r.Xt));
+        if (useS) columns.Add((2, r => r.Xs));
+        if (useDays) columns.Add((3, r => r.Days));
+        var offset = fixedIntercept ?? 0;
+        var x = Matrix<double>.Build.Dense(rows.Count, columns.Count, (i, j) => columns[j].Value(rows[i]) * Math.Sqrt(rows[i].W));
+        var y = Vector<double>.Build.Dense(rows.Count, i => (rows[i].Y - offset) * Math.Sqrt(rows[i].W));
+        var beta = x.QR().Solve(y);
+        var p = new double[4];
+        p[0] = offset;
+        for (var j = 0; j < columns.Count; j++) p[columns[j].Slot] = beta[j];
+        var residual = Math.Sqrt(rows.Sum(r => Math.Pow(r.Y - (p[0] + p[1] * r.Xt + p[2] * r.Xs + p[3] * r.Days), 2)) /
+                                 Math.Max(1, rows.Count - columns.Count));
+        var slots = columns.Select(c => c.Slot).ToList();
+        var covariance = Covariance(x, y - x * beta, slots.Where(slot => slot < 3).ToList(), slots);
+        return (p[0], p[1], p[2], p[3], fixedIntercept is not null, covariance, residual);
     }
 
     /// <summary>Covariance of (a, b, c) as s²·(XᵀX)⁻¹ of the weighted fit, widened for serially correlated residuals;
-    /// columns not fitted stay zero.</summary>
-    private static double[,] Covariance(Matrix<double> x, Vector<double> residual, List<int> map)
+    /// parameters not fitted (or held at a bound) stay zero.</summary>
+    private static double[,] Covariance(Matrix<double> x, Vector<double> residual, List<int> keep, List<int> slots)
     {
         var dof = Math.Max(1, x.RowCount - x.ColumnCount);
         var s2 = residual.DotProduct(residual) / dof;
         var inverse = (x.TransposeThisAndMultiply(x)).Inverse() * (s2 * SerialInflation(residual.ToArray()));
         var result = new double[3, 3];
-        for (var i = 0; i < map.Count; i++)
-        for (var j = 0; j < map.Count; j++) result[map[i], map[j]] = double.IsFinite(inverse[i, j]) ? inverse[i, j] : 0;
+        for (var i = 0; i < slots.Count; i++)
+        for (var j = 0; j < slots.Count; j++)
+            if (keep.Contains(slots[i]) && keep.Contains(slots[j]))
+                result[slots[i], slots[j]] = double.IsFinite(inverse[i, j]) ? inverse[i, j] : 0;
         return result;
     }
 

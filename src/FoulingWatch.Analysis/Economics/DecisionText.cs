@@ -6,8 +6,7 @@ namespace FoulingWatch.Analysis.Economics;
 /// <summary>The words of a cleaning decision, dates in the site's local calendar.</summary>
 public static class DecisionText
 {
-    public static string Date(DateTimeOffset? t, TimeZoneInfo zone) =>
-        t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "beyond the horizon";
+    public static string Date(DateTimeOffset? t, TimeZoneInfo zone) => SiteCalendar.Date(t, zone);
 
     private static string M(double v) => v.ToString("N0", CultureInfo.InvariantCulture);
 

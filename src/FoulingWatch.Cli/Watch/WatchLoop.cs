@@ -190,6 +190,7 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
                 list.Add((id, "limit", f.Statement));
             if (x.Trend.Rate?.Jump == true) list.Add((id, "rate-jump", x.Trend.Rate.Statement));
             if (x.History.SensorCheck.LikelyFault) list.Add((id, "sensor-fault", x.History.SensorCheck.Statement));
+            if (x.History.Drift is { } drift) list.Add((id, "instrument-drift", drift.Statement));
             var last = x.History.Samples.Where(s => s.Status != SampleStatus.Missing).TakeLast(144).ToList();
             if (last.Count >= 36 && last.Count(s => s.Status == SampleStatus.Balance) * 2 > last.Count)
                 list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s.Status == SampleStatus.Balance)} of the last {last.Count} samples")));

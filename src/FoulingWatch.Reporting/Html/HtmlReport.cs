@@ -83,6 +83,8 @@ public static class HtmlReport
             sb.Append($"<tr><th>forecast</th><td>{H(x.Trend.Forecast?.Statement ?? "no forecast (no fouling limit configured, or no fitted law)")}</td></tr>");
             sb.Append($"<tr><th>economics</th><td>{H(x.Economics.Statement)}</td></tr>");
             sb.Append($"<tr><th>sensors</th><td class=\"{(x.History.SensorCheck.LikelyFault ? "warn" : "")}\">{H(x.History.SensorCheck.Statement)}</td></tr>");
+            if (x.History.Drift is { } drift)
+                sb.Append($"<tr><th>instrument drift</th><td class=\"warn\">{H(drift.Statement)}</td></tr>");
             sb.Append("</tbody></table>\n");
             if (exchangerCharts.TryGetValue(xc.Id, out var charts))
                 foreach (var c in charts) sb.Append(Figure(c));

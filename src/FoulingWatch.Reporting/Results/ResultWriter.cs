@@ -99,6 +99,23 @@ public static class ResultWriter
                 bias_unit = x.History.SensorCheck.BiasUnit,
                 fraction_failing_balance_test = NumberText.Json(x.History.SensorCheck.FractionFailingGlobalTest),
             },
+            instrument_drift = x.History.Drift is not { } d ? null : new
+            {
+                statement = d.Statement,
+                onset = SiteCalendar.Date(d.Onset, r.Configuration.Site.TimeZone),
+                alarm = SiteCalendar.Date(d.Alarm, r.Configuration.Site.TimeZone),
+                form = d.Form,
+                balance_shift = NumberText.Json(d.Shift),
+                balance_shift_per_day = NumberText.Json(d.RatePerDay),
+                single_sensor = d.SingleSensor,
+                sensor = FoulingWatch.Analysis.BackCalculation.Measurement.Names[d.Sensor],
+                tag = d.Tag,
+                suspects = d.Suspects,
+                bias_at_end = NumberText.Json(d.Bias),
+                bias_per_day = NumberText.Json(d.BiasRatePerDay),
+                bias_unit = d.BiasUnit,
+                explained = NumberText.Json(d.Explained),
+            },
             trend = Trend(x.Trend, r.Configuration.Site.TimeZone),
             economics = Economics(x.Economics, r.Configuration.Site.TimeZone),
             samples = new
