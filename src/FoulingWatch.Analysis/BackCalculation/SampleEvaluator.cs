@@ -78,6 +78,17 @@ public sealed class SampleEvaluator
         return (qh, qc);
     }
 
+    /// <summary>": hot outlet TI-2 reads 4.1 K above hot inlet TI-1; swapped or mislabelled sensors?" when an outlet is on
+    /// the impossible side of its inlet, else empty.</summary>
+    private static string Crossed(double[] m, int outlet, int inlet, string outletTag, string inletTag, string side)
+    {
+        var d = m[outlet] - m[inlet];
+        if (side == "below") d = -d;
+        return d > 0
+            ? FormattableString.Invariant($": {Measurement.Names[outlet]} {outletTag} reads {d:0.0} K {side} {Measurement.Names[inlet]} {inletTag}; swapped or mislabelled sensors?")
+            : "";
+    }
+
     /// <summary>Evaluates a sample up to actual U. Measurements in SI (kg/s, K); pressures in Pa absolute.</summary>
     public SampleEvaluation Evaluate(double[] m, double pHot, double pCold, bool reconcile)
     {
@@ -89,7 +100,8 @@ public sealed class SampleEvaluator
         var (qh, qc) = duties.Value;
         if (!(qh > 0) || !(qc > 0))
             return new SampleEvaluation { Status = SampleStatus.NoDuty, DutyHot = qh, DutyCold = qc, Measurements = m,
-                Detail = qh <= 0 ? "the hot stream is not cooling" : "the cold stream is not warming" };
+                Detail = qh <= 0 ? "the hot stream is not cooling" + Crossed(m, Measurement.HotOutlet, Measurement.HotInlet, _x.Hot.Outlet.Tag, _x.Hot.Inlet.Tag, "above")
+                    : "the cold stream is not warming" + Crossed(m, Measurement.ColdOutlet, Measurement.ColdInlet, _x.Cold.Outlet.Tag, _x.Cold.Inlet.Tag, "below") };
         var mismatch = (qh - qc) / (0.5 * (qh + qc));
         double q;
         ReconciliationResult? rec = null;

@@ -4,7 +4,11 @@ namespace FoulingWatch.Analysis.Trends;
 public enum CleaningSource { Logged, Detected }
 
 /// <summary>A cleaning: its date, how it is known, and the evidence in the data (daily medians before and after).</summary>
-public sealed record Cleaning(DateTimeOffset Date, CleaningSource Source, double? RfBefore, double? RfAfter, double? Drop, double? DropSigma);
+/// <param name="Date">The cycle boundary: the restart after the cleaning's outage when one is found in the data, else the
+/// logged date or the first day after the fall.</param>
+/// <param name="OutageStart">Start of the outage around the cleaning (flows below the downtime fraction), when found.</param>
+public sealed record Cleaning(DateTimeOffset Date, CleaningSource Source, double? RfBefore, double? RfAfter, double? Drop, double? DropSigma,
+    DateTimeOffset? OutageStart = null, DateTimeOffset? OutageEnd = null);
 
 /// <summary>Finds cleanings in the daily Rf as a sharp, sustained fall: the median of the days after a point lies well below the median of the days before it.</summary>
 /// <remarks>

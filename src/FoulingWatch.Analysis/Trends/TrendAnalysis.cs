@@ -60,8 +60,15 @@ public static class TrendAnalysis
         var daily = DailyFouling.Resample(history.Samples);
         var logged = x.Maintenance.Where(m => m.IsCleaning).Select(m => m.Date).ToList();
         var suppressed = x.Maintenance.Where(m => m.Action.Equals("not-cleaned", StringComparison.OrdinalIgnoreCase)).Select(m => m.Date).ToList();
-        var detected = CleaningDetection.Detect(daily, logged, suppressed);
-        var cleanings = logged.Select(d => new Cleaning(d, CleaningSource.Logged, null, null, null, null)).Concat(detected).OrderBy(c => c.Date).ToList();
+        var interval = history.Samples.Count > 1 ? history.Samples[1].Timestamp - history.Samples[0].Timestamp : TimeSpan.FromMinutes(10);
+        // A detected cleaning is dated by its outage when the data show one: the restart starts the new cycle.
+        var detected = CleaningDetection.Detect(daily, logged, suppressed).Select(c =>
+            Outages.Near(history.Samples, c.Date - TimeSpan.FromDays(1), interval) is { } o
+                ? c with { Date = o.End, OutageStart = o.Start, OutageEnd = o.End } : c).ToList();
+        var cleanings = logged.Select(d => Outages.Near(history.Samples, d, interval) is { } o
+                ? new Cleaning(d, CleaningSource.Logged, null, null, null, null, o.Start, o.End)
+                : new Cleaning(d, CleaningSource.Logged, null, null, null, null))
+            .Concat(detected).OrderBy(c => c.Date).ToList();
 
         var cycles = new List<FoulingCycle>();
         if (daily.Count > 0)
@@ -105,7 +112,7 @@ public static class TrendAnalysis
     private static FoulingCycle FitCycle(DateTimeOffset start, DateTimeOffset end, bool known, CleaningSource? source, List<DailyPoint> daily, ExchangerHistory history)
     {
         var threshold = history.Exchanger.Threshold is { } ts ? ThresholdFouling.ForCycle(history, ts, start, end) : null;
-        var points = daily.Where(d => d.Day >= start && d.Day < end).ToList();
+        var points = daily.Where(d => InCycle(d.Day, start, end)).ToList();
         if (points.Count < MinimumDays)
             return new FoulingCycle(start, end, known, source, points, [], null, 0,
                 $"too short to fit: {points.Count} usable days, at least {MinimumDays} needed");
@@ -128,6 +135,11 @@ public static class TrendAnalysis
         var refusal = chosen is null ? "no model could be fitted" : Insignificance(chosen, start, used);
         return new FoulingCycle(start, end, known, source, used, candidates, refusal is null ? chosen : null, outliers, refusal);
     }
+
+    /// <summary>A day belongs to the cycle in which it ends: a day straddling a restart holds only samples after it (those
+    /// before were downtime), so it opens the new cycle.</summary>
+    public static bool InCycle(DateTimeOffset day, DateTimeOffset start, DateTimeOffset end) =>
+        day + TimeSpan.FromDays(1) > start && day + TimeSpan.FromDays(1) <= end;
 
     /// <summary>Days after the data over which the implied growth is judged (a planning horizon).</summary>
     public const double SignificanceLookAheadDays = 90;
@@ -192,8 +204,8 @@ public static class TrendAnalysis
 
     private static CleaningEffect Effect(Cleaning c, List<DailyPoint> daily, List<FoulingCycle> cycles)
     {
-        var before = daily.Where(d => d.Day < c.Date).TakeLast(3).Select(d => d.FoulingResistance).Order().ToArray();
-        var after = daily.Where(d => d.Day >= c.Date).Take(3).Select(d => d.FoulingResistance).Order().ToArray();
+        var before = daily.Where(d => d.Day + TimeSpan.FromDays(1) <= (c.OutageStart ?? c.Date)).TakeLast(3).Select(d => d.FoulingResistance).Order().ToArray();
+        var after = daily.Where(d => d.Day + TimeSpan.FromDays(1) > c.Date).Take(3).Select(d => d.FoulingResistance).Order().ToArray();
         double? b = before.Length > 0 ? DailyFouling.Median(before) : null;
         double? a = after.Length > 0 ? DailyFouling.Median(after) : null;
         double? fraction = b is > 0 && a is not null ? (b - a) / b : null;

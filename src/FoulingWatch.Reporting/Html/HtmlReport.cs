@@ -25,6 +25,7 @@ public static class HtmlReport
         var zone = cfg.Site.TimeZone;
         var currency = cfg.Economics.Currency;
         string D(DateTimeOffset? t) => t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", Inv) : "—";
+        string Instant(DateTimeOffset t) => TimeZoneInfo.ConvertTime(t, zone).ToString("yyyy-MM-dd HH:mm", Inv);
         string N(double v, string f = "N0") => double.IsFinite(v) ? v.ToString(f, Inv) : "—";
         string H(string? s) => WebUtility.HtmlEncode(s ?? "");
 
@@ -97,9 +98,9 @@ public static class HtmlReport
             sb.Append("</tbody></table>\n");
             if (x.Trend.Cleanings.Count > 0)
             {
-                sb.Append("<h3>Cleanings</h3><table><thead><tr><th>date</th><th>source</th><th class=\"n\">Rf before</th><th class=\"n\">Rf after (×10⁻⁴ m²·K/W)</th><th class=\"n\">removed</th><th class=\"n\">rate after / before</th></tr></thead><tbody>");
+                sb.Append("<h3>Cleanings</h3><table><thead><tr><th>date</th><th>outage</th><th>source</th><th class=\"n\">Rf before</th><th class=\"n\">Rf after (×10⁻⁴ m²·K/W)</th><th class=\"n\">removed</th><th class=\"n\">rate after / before</th></tr></thead><tbody>");
                 foreach (var c in x.Trend.Cleanings)
-                    sb.Append($"<tr><td>{D(c.Cleaning.Date)}</td><td>{c.Cleaning.Source.ToString().ToLowerInvariant()}</td><td class=\"n\">{(c.RfBefore is { } b ? N(b * 1e4, "0.00") : "—")}</td><td class=\"n\">{(c.RfAfter is { } a ? N(a * 1e4, "0.00") : "—")}</td><td class=\"n\">{(c.FractionRemoved is { } f ? N(f * 100, "0") + " %" : "—")}</td><td class=\"n\">{(c.RateAfter is { } ra && c.RateBefore is { } rb && rb != 0 ? N(ra / rb, "0.00") : "—")}</td></tr>");
+                    sb.Append($"<tr><td>{D(c.Cleaning.Date)}</td><td>{(c.Cleaning.OutageStart is { } os && c.Cleaning.OutageEnd is { } oe ? H(Instant(os) + " to " + Instant(oe)) : "—")}</td><td>{c.Cleaning.Source.ToString().ToLowerInvariant()}</td><td class=\"n\">{(c.RfBefore is { } b ? N(b * 1e4, "0.00") : "—")}</td><td class=\"n\">{(c.RfAfter is { } a ? N(a * 1e4, "0.00") : "—")}</td><td class=\"n\">{(c.FractionRemoved is { } f ? N(f * 100, "0") + " %" : "—")}</td><td class=\"n\">{(c.RateAfter is { } ra && c.RateBefore is { } rb && rb != 0 ? N(ra / rb, "0.00") : "—")}</td></tr>");
                 sb.Append("</tbody></table>\n");
             }
             sb.Append("<h3>Data quality</h3>");

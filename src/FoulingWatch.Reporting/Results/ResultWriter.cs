@@ -151,6 +151,10 @@ public static class ResultWriter
     private static string? Date(DateTimeOffset? t, TimeZoneInfo zone) =>
         t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture) : null;
 
+    /// <summary>An instant in the site's local time with its offset, e.g. 2026-08-05T02:00:00+02:00.</summary>
+    private static string? LocalTime(DateTimeOffset? t, TimeZoneInfo zone) =>
+        t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-ddTHH:mm:sszzz", System.Globalization.CultureInfo.InvariantCulture) : null;
+
     public static object Trend(TrendResult t, TimeZoneInfo zone) => new
     {
         daily_points = t.Daily.Count,
@@ -158,6 +162,8 @@ public static class ResultWriter
         {
             date = Date(c.Cleaning.Date, zone),
             source = c.Cleaning.Source == CleaningSource.Logged ? "logged" : "detected",
+            outage_start = LocalTime(c.Cleaning.OutageStart, zone),
+            outage_end = LocalTime(c.Cleaning.OutageEnd, zone),
             evidence = c.Cleaning.Source == CleaningSource.Detected
                 ? new { rf_before_m2K_per_W = NumberText.Json(c.Cleaning.RfBefore!.Value), rf_after_m2K_per_W = NumberText.Json(c.Cleaning.RfAfter!.Value), drop_sigma_m2K_per_W = NumberText.Json(c.Cleaning.DropSigma!.Value) }
                 : null,

@@ -53,7 +53,19 @@ public class SampleEvaluatorTests
     {
         var e = new SampleEvaluator(Exchanger()).Evaluate(M(10, 100, 110, 8, 30, 40), 5e5, 5e5, true);
         Assert.Equal(SampleStatus.NoDuty, e.Status);
-        Assert.Equal("the hot stream is not cooling", e.Detail);
+        Assert.StartsWith("the hot stream is not cooling: hot outlet ", e.Detail);
+        // Analytic: the outlet reads 110 °C, 10 K above the 100 °C inlet; both tags are named so the swap can be checked.
+        var x = Exchanger();
+        Assert.Contains($"hot outlet {x.Hot.Outlet.Tag} reads 10.0 K above hot inlet {x.Hot.Inlet.Tag}; swapped or mislabelled sensors?", e.Detail);
+    }
+
+    [Fact]
+    public void A_cold_outlet_below_its_inlet_is_named_as_a_likely_swap()
+    {
+        var x = Exchanger();
+        var e = new SampleEvaluator(x).Evaluate(M(10, 150, 110, 8, 40, 33), 5e5, 5e5, true);
+        Assert.Equal(SampleStatus.NoDuty, e.Status);
+        Assert.Equal($"the cold stream is not warming: cold outlet {x.Cold.Outlet.Tag} reads 7.0 K below cold inlet {x.Cold.Inlet.Tag}; swapped or mislabelled sensors?", e.Detail);
     }
 
     [Fact]
