@@ -22,8 +22,10 @@ public sealed record SampleResult(DateTimeOffset Timestamp, SampleStatus Status,
     double SigmaSystematic = double.NaN, double SigmaRandom = double.NaN);
 
 /// <summary>What the clean-U reference is and how well it was determined.</summary>
+/// <param name="Cycles">The clean U learned after each logged cleaning in the data (Wilson plot with a fouling term), at
+/// reference flows: how it moves from cycle to cycle is itself a health indicator.</param>
 public sealed record CleanReferenceReport(string Method, string Description, string? Refusal, int CalibrationSamples, double? ResidualStandardDeviation,
-    DateTimeOffset? PeriodStart, DateTimeOffset? PeriodEnd);
+    DateTimeOffset? PeriodStart, DateTimeOffset? PeriodEnd, IReadOnlyList<CycleBaseline>? Cycles = null, string? CycleStatement = null);
 
 /// <summary>Per-sensor check of the heat balance over the latest days: which single sensor bias best explains the mismatch.</summary>
 public sealed record SensorCheck(int Samples, double FractionFailingGlobalTest, string? LikelySensor, string? Tag, double? Bias, string? BiasUnit,
@@ -98,6 +100,8 @@ public static class BackCalculator
         if (drift is not null) MarkDrift(data, evaluations, status, drift, zone ?? TimeZoneInfo.Utc);
 
         var (clean, cleanReport) = CleanModel(x, data, evaluations, evaluator);
+        var cycles = CycleBaselines.Fit(x, data, evaluations, evaluator, clean, zone ?? TimeZoneInfo.Utc);
+        cleanReport = cleanReport with { Cycles = cycles.Cycles, CycleStatement = cycles.Statement };
         if (clean is null)
             return new ExchangerHistory(x, Build(data, evaluations, new double[n]), cleanReport, SensorCheckOf(x, data, evaluations, evaluator),
                 $"no clean-U reference: {cleanReport.Refusal}", drift);
@@ -195,9 +199,16 @@ public static class BackCalculator
         if (start is null)
             return (null, new CleanReferenceReport("baseline", "Wilson-plot baseline", "no usable sample to calibrate on", 0, null, null, null));
         var end = start.Value + b.Duration;
-        var rows = new List<WilsonRow>();
         var nt = tubePhase ? 0 : b.TubeExponent;
         var ns = shellPhase ? 0 : b.ShellExponent;
+        return WilsonPlot.Fit(CalibrationRows(data, evaluations, evaluator, start.Value, end, nt, ns), nt, ns, start.Value, end);
+    }
+
+    /// <summary>The usable samples in [start, end) as Wilson-plot rows, weighted by 1/σ²(1/U).</summary>
+    public static List<WilsonRow> CalibrationRows(IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator,
+        DateTimeOffset start, DateTimeOffset end, double nt, double ns)
+    {
+        var rows = new List<WilsonRow>();
         for (var k = 0; k < evaluations.Length; k++)
         {
             var t = data.IntervalStart(k);
@@ -205,9 +216,9 @@ public static class BackCalculator
             if (t < start || t >= end || e.Status != SampleStatus.Ok || !(e.UActual > 0)) continue;
             var sigmaU = SigmaOfInverseU(evaluator, e);
             var w = sigmaU > 0 ? 1 / (sigmaU * sigmaU) : 1;
-            rows.Add(new WilsonRow(1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), (t - start.Value).TotalDays, w));
+            rows.Add(new WilsonRow(1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), (t - start).TotalDays, w));
         }
-        return WilsonPlot.Fit(rows, nt, ns, start.Value, end);
+        return rows;
     }
 
     private static DateTimeOffset? FirstOk(IngestResult data, SampleEvaluation[] evaluations)

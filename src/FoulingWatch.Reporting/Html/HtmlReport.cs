@@ -84,6 +84,8 @@ public static class HtmlReport
             sb.Append($"<tr><th>forecast</th><td>{H(x.Trend.Forecast?.Statement ?? "no forecast (no fouling limit configured, or no fitted law)")}</td></tr>");
             sb.Append($"<tr><th>economics</th><td>{H(x.Economics.Statement)}</td></tr>");
             sb.Append($"<tr><th>sensors</th><td class=\"{(x.History.SensorCheck.LikelyFault ? "warn" : "")}\">{H(x.History.SensorCheck.Statement)}</td></tr>");
+            if (x.History.CleanReference.CycleStatement is { } cycleText)
+                sb.Append($"<tr><th>clean U by cycle</th><td class=\"{(cycleText.Contains("fell") || cycleText.Contains(" off the learned") ? "warn" : "")}\">{H(cycleText)}</td></tr>");
             if (x.History.Drift is { } drift)
                 sb.Append($"<tr><th>instrument drift</th><td class=\"warn\">{H(drift.Statement)}</td></tr>");
             sb.Append("</tbody></table>\n");

@@ -76,6 +76,15 @@ public static class ResultWriter
                 description = x.History.CleanReference.Description,
                 calibration_samples = x.History.CleanReference.CalibrationSamples,
                 residual_sd_m2K_per_W = x.History.CleanReference.ResidualStandardDeviation is { } sd ? NumberText.Json(sd) : null,
+                after_each_cleaning = x.History.CleanReference.Cycles?.Select(c => new
+                {
+                    cleaning = Date(c.Start, r.Configuration.Site.TimeZone),
+                    samples = c.Samples,
+                    u_clean_W_per_m2K = c.CleanU is { } u ? NumberText.Json(u) : null,
+                    sigma_W_per_m2K = c.Sigma is { } su ? NumberText.Json(su) : null,
+                    refusal = c.Refusal,
+                }),
+                after_each_cleaning_statement = x.History.CleanReference.CycleStatement,
             },
             current = new
             {
