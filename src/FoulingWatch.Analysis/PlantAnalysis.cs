@@ -23,27 +23,32 @@ public static class PlantAnalysis
 {
     public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null)
     {
-        var ingest = HistorianIngest.Run(config, progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction))));
+        var ingest = StageClock.Time("ingest", () => HistorianIngest.Run(config,
+            progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction)))));
         return Run(config, ingest, progress);
     }
 
     /// <summary>Runs the analysis on data already ingested and aligned.</summary>
     public static PlantResult Run(PlantConfiguration config, IngestResult ingest, IProgress<(string Stage, double Fraction)>? progress = null)
     {
-        var results = new List<ExchangerResult>();
-        for (var i = 0; i < config.Exchangers.Count; i++)
+        // Exchangers are independent (each seeds its own draws from its id): they run side by side, results in
+        // configuration order, so a run is identical whatever the number of cores.
+        var results = new ExchangerResult[config.Exchangers.Count];
+        var done = 0;
+        Parallel.For(0, config.Exchangers.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
         {
             var x = config.Exchangers[i];
-            progress?.Report(($"back-calculating, fitting and pricing {x.Id}", i / (double)config.Exchangers.Count));
-            var history = BackCalculator.Run(x, ingest,
+            var history = StageClock.Time("back-calculation", () => BackCalculator.Run(x, ingest,
                 OperatingStateSettings.Default with { FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter },
-                config.Site.TimeZone);
+                config.Site.TimeZone));
             var current = Current(history);
-            var trend = TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone);
-            results.Add(new ExchangerResult(history, current, StatusCounts(history), trend, FoulingEconomics.Run(history, trend, config, current)));
-        }
-        var plan = FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(), config.ShutdownWindows,
-            config.Site.TimeZone);
+            var trend = StageClock.Time("trends", () => TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone));
+            var economics = StageClock.Time("economics", () => FoulingEconomics.Run(history, trend, config, current));
+            results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics);
+            progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
+        });
+        var plan = StageClock.Time("plan", () => FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(),
+            config.ShutdownWindows, config.Site.TimeZone));
         return new PlantResult(config, ingest, results, plan);
     }
 

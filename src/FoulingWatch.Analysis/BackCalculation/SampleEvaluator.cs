@@ -66,15 +66,17 @@ public sealed class SampleEvaluator
     private static Temperature T(double k) => Temperature.FromKelvin(k);
 
     /// <summary>Hot- and cold-side duties in W, or null with the reason the fluid models cannot evaluate the streams.</summary>
-    public (double Hot, double Cold)? Duties(ReadOnlySpan<double> m, double pHot, double pCold, out string? why)
+    /// <param name="memo">Remembers each side's last enthalpy change: probes that move a flow, or one side's temperatures,
+    /// re-evaluate no fluid, or one (same values, fewer property calls).</param>
+    public (double Hot, double Cold)? Duties(ReadOnlySpan<double> m, double pHot, double pCold, out string? why, DutyMemo? memo = null)
     {
-        var hp = new Pressure(pHot);
-        var cp = new Pressure(pCold);
-        why = _x.Hot.Fluid.WhyNotEvaluable(T(m[Measurement.HotInlet]), T(m[Measurement.HotOutlet]), hp)
-              ?? _x.Cold.Fluid.WhyNotEvaluable(T(m[Measurement.ColdInlet]), T(m[Measurement.ColdOutlet]), cp);
+        memo ??= new DutyMemo();
+        var dhh = memo.Hot.Change(_x.Hot.Fluid, m[Measurement.HotInlet], m[Measurement.HotOutlet], pHot, out why);
         if (why is not null) return null;
-        var qh = -m[Measurement.HotFlow] * _x.Hot.Fluid.EnthalpyChange(T(m[Measurement.HotInlet]), T(m[Measurement.HotOutlet]), hp);
-        var qc = m[Measurement.ColdFlow] * _x.Cold.Fluid.EnthalpyChange(T(m[Measurement.ColdInlet]), T(m[Measurement.ColdOutlet]), cp);
+        var dhc = memo.Cold.Change(_x.Cold.Fluid, m[Measurement.ColdInlet], m[Measurement.ColdOutlet], pCold, out why);
+        if (why is not null) return null;
+        var qh = -m[Measurement.HotFlow] * dhh;
+        var qc = m[Measurement.ColdFlow] * dhc;
         return (qh, qc);
     }
 
@@ -90,12 +92,13 @@ public sealed class SampleEvaluator
     }
 
     /// <summary>Evaluates a sample up to actual U. Measurements in SI (kg/s, K); pressures in Pa absolute.</summary>
-    public SampleEvaluation Evaluate(double[] m, double pHot, double pCold, bool reconcile)
+    public SampleEvaluation Evaluate(double[] m, double pHot, double pCold, bool reconcile, DutyMemo? memo = null)
     {
+        memo ??= new DutyMemo();
         foreach (var v in m)
             if (!(v > 0) || double.IsInfinity(v)) return new SampleEvaluation { Status = SampleStatus.Missing, Measurements = m };
         double[] used = m;
-        var duties = Duties(m, pHot, pCold, out var why);
+        var duties = Duties(m, pHot, pCold, out var why, memo);
         if (duties is null) return new SampleEvaluation { Status = SampleStatus.PropertyRange, Detail = why, Measurements = m };
         var (qh, qc) = duties.Value;
         if (!(qh > 0) || !(qc > 0))
@@ -115,10 +118,10 @@ public sealed class SampleEvaluator
             default:
                 rec = Reconciliation.Reconcile(m, Sigmas(m), x =>
                 {
-                    var d = Duties(x, pHot, pCold, out _);
+                    var d = Duties(x, pHot, pCold, out _, memo);
                     return d is null ? double.NaN : d.Value.Hot - d.Value.Cold;
                 });
-                var adjusted = Duties(rec.Adjusted, pHot, pCold, out _);
+                var adjusted = Duties(rec.Adjusted, pHot, pCold, out _, memo);
                 if (adjusted is null || rec.Adjusted.Any(v => !(v > 0)))
                     return new SampleEvaluation { Status = SampleStatus.PropertyRange, Detail = "reconciliation moved a measurement outside the property range", Measurements = m };
                 used = rec.Adjusted;
@@ -194,16 +197,66 @@ public sealed class SampleEvaluator
     }
 
     /// <summary>Rf in m²·K/W of a sample, or NaN when it cannot be evaluated (used for uncertainty propagation).</summary>
-    public double FoulingResistanceOf(double[] m, double pHot, double pCold, ICleanUModel clean)
+    /// <remarks>The arithmetic of <see cref="Evaluate"/> without reconciliation (a reconciled basis counts as the mean of
+    /// the two duties) and <see cref="Complete"/>'s Rf, without building the evaluation records: it runs a dozen times
+    /// per sample.</remarks>
+    public double FoulingResistanceOf(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
-        var e = Evaluate(m, pHot, pCold, reconcile: false);
-        if (!(e.UActual > 0)) return double.NaN;
-        var uc = clean.CleanU(e.TubeFlow, e.ShellFlow);
-        return 1 / e.UActual - 1 / uc;
+        foreach (var v in m)
+            if (!(v > 0) || double.IsInfinity(v)) return double.NaN;
+        var duties = Duties(m, pHot, pCold, out _, memo);
+        if (duties is null) return double.NaN;
+        var (qh, qc) = duties.Value;
+        if (!(qh > 0) || !(qc > 0)) return double.NaN;
+        var q = _x.DutyBasis switch { DutyBasis.Hot => qh, DutyBasis.Cold => qc, _ => 0.5 * (qh + qc) };
+        var (thi, tho, tci, tco) = TerminalTemperatures(m);
+        if (!Core.Exchangers.Lmtd.TryFromTerminalDifferences(thi - tco, tho - tci, out var lmtd)) return double.NaN;
+        double f;
+        if (_x.Hot.Fluid.IsPhaseChange || _x.Cold.Fluid.IsPhaseChange) f = 1.0;
+        else
+        {
+            var pr = TemperatureEffectiveness.FromTemperatures(T(thi), T(tho), T(tci), T(tco));
+            if (pr is null || !_x.Arrangement.TryLmtdCorrectionFactor(pr.Value.P, pr.Value.R, out f)) return double.NaN;
+            f = Math.Min(f, 1.0);
+        }
+        var u = q / (_x.Area * f * lmtd);
+        if (!(u > 0)) return double.NaN;
+        var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
+        var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
+        return 1 / u - 1 / clean.CleanU(tube, shell);
     }
 
     /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the
     /// manner of ASME PTC 19.1 (<see cref="FirstOrderPropagation"/>). Sensor errors are taken as independent.</summary>
-    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean) =>
-        FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean), m, Sigmas(m));
+    /// <remarks>The same central differences (step σᵢ/100) as <see cref="FirstOrderPropagation.StandardUncertainty"/> on
+    /// <see cref="FoulingResistanceOf"/>, with each side's enthalpy change remembered between probes (a flow probe
+    /// re-evaluates no fluid): the same values with a third of the property calls.</remarks>
+    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean)
+    {
+        var memo = new DutyMemo();
+        return FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean, memo), m, Sigmas(m));
+    }
+}
+
+/// <summary>The last enthalpy change of each side of one sample (fixed pressures), with its validity verdict.</summary>
+public sealed class DutyMemo
+{
+    internal SideMemo Hot { get; } = new();
+    internal SideMemo Cold { get; } = new();
+
+    internal sealed class SideMemo
+    {
+        private double _in = double.NaN, _out = double.NaN, _p = double.NaN, _dh;
+        private string? _why;
+
+        public double Change(IFluidModel fluid, double tIn, double tOut, double p, out string? why)
+        {
+            if (tIn.Equals(_in) && tOut.Equals(_out) && p.Equals(_p)) { why = _why; return _dh; }
+            var pressure = new Pressure(p);
+            why = fluid.WhyNotEvaluable(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), pressure);
+            var dh = why is null ? fluid.EnthalpyChange(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), pressure) : double.NaN;
+            (_in, _out, _p, _dh, _why) = (tIn, tOut, p, dh, why);
+            return dh;
+        }
+    }
 }

@@ -25,12 +25,18 @@ public static class ResultWriter
     public static void Write(PlantResult result, string outDirectory)
     {
         Directory.CreateDirectory(outDirectory);
-        foreach (var x in result.Exchangers)
-            TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
-                x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList(),
-                x.Economics.Pricing?.MoneyPerJoule);
-        AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
-        PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
+        StageClock.Time("write time series", () =>
+        {
+            Parallel.ForEach(result.Exchangers, x =>
+                TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
+                    x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList(),
+                    x.Economics.Pricing?.MoneyPerJoule));
+        });
+        StageClock.Time("write summary and plan", () =>
+        {
+            AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
+            PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
+        });
         WriteReport(result, outDirectory);
     }
 
@@ -38,15 +44,22 @@ public static class ResultWriter
     public static void WriteReport(PlantResult result, string outDirectory)
     {
         var charts = new Dictionary<string, IReadOnlyList<Charts.Chart>>();
-        foreach (var x in result.Exchangers) charts[x.History.Exchanger.Id] = Charts.ReportCharts.ForExchanger(x);
-        IReadOnlyList<Charts.Chart> site = [Charts.ReportCharts.CostRanking(result), Charts.ReportCharts.PlanTimeline(result)];
-        var folder = Path.Combine(outDirectory, "charts");
-        foreach (var c in charts.Values.SelectMany(c => c).Concat(site))
+        IReadOnlyList<Charts.Chart> site = [];
+        StageClock.Time("charts", () =>
         {
-            AtomicFile.WriteAllBytes(Path.Combine(folder, c.Name + ".png"), c.Png);
-            AtomicFile.WriteAllText(Path.Combine(folder, c.Name + ".svg"), c.Svg);
-        }
-        AtomicFile.WriteAllText(Path.Combine(outDirectory, "report.html"), Html.HtmlReport.Build(result, charts, site));
+            var drawn = new IReadOnlyList<Charts.Chart>[result.Exchangers.Count];
+            Parallel.For(0, drawn.Length, i => drawn[i] = Charts.ReportCharts.ForExchanger(result.Exchangers[i]));
+            for (var i = 0; i < drawn.Length; i++) charts[result.Exchangers[i].History.Exchanger.Id] = drawn[i];
+            site = [Charts.ReportCharts.CostRanking(result), Charts.ReportCharts.PlanTimeline(result)];
+            var folder = Path.Combine(outDirectory, "charts");
+            Parallel.ForEach(charts.Values.SelectMany(c => c).Concat(site), c =>
+            {
+                AtomicFile.WriteAllBytes(Path.Combine(folder, c.Name + ".png"), c.Png);
+                AtomicFile.WriteAllText(Path.Combine(folder, c.Name + ".svg"), c.Svg);
+            });
+        });
+        StageClock.Time("report", () =>
+            AtomicFile.WriteAllText(Path.Combine(outDirectory, "report.html"), Html.HtmlReport.Build(result, charts, site)));
     }
 
     /// <summary>A file-system-safe folder name for an exchanger id.</summary>
