@@ -7,6 +7,11 @@ using FoulingWatch.Ingest.Historian;
 
 // Ingest benchmark: a year of 1-minute data for 20 exchangers (120 tag columns), read bare and ingested in full.
 // Usage: dotnet run -c Release --project bench/FoulingWatch.Benchmark -- [folder] [days]
+// Whole job: dotnet run -c Release --project bench/FoulingWatch.Benchmark -- [folder] [days] --whole [turns]
+if (args.Length > 0 && args[0] == "--floor") { WholeJob.Floor(args.Skip(1)); return; }
+var whole = Array.IndexOf(args, "--whole");
+var turnsWhole = whole >= 0 && whole + 1 < args.Length ? int.Parse(args[whole + 1], CultureInfo.InvariantCulture) : 3;
+if (whole >= 0) args = args[..whole];
 var folder = args.Length > 0 ? args[0] : Path.Combine(Path.GetTempPath(), "fw-bench");
 var days = args.Length > 1 ? int.Parse(args[1], CultureInfo.InvariantCulture) : 365;
 Directory.CreateDirectory(folder);
@@ -22,6 +27,15 @@ if (!File.Exists(csv))
 }
 File.WriteAllText(config, Config(Path.GetFileName(csv)));
 var bytes = new FileInfo(csv).Length;
+if (whole >= 0)
+{
+    WholeJob.Run($"{exchangers} exchangers, {days} days at 1 min", config, [csv], turnsWhole);
+    var sample = Path.GetFullPath("sample-data/plant.json");
+    if (File.Exists(sample))
+        WholeJob.Run("sample plant", sample, Directory.GetFiles(Path.GetDirectoryName(sample)!, "*.csv*").Order().ToList(), turnsWhole);
+    else Console.WriteLine("sample plant not found: run from the repository root to include it");
+    return;
+}
 
 // This machine's timings vary by tens of per cent from minute to minute (a shared virtual machine), so the bare read
 // and the full ingest are measured in turns, each pair under the same conditions, and the best, the median and the
