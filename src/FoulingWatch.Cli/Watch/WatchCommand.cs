@@ -32,7 +32,7 @@ public sealed class WatchService(PlantConfiguration config, WatchSettings settin
 
 public static class WatchCommand
 {
-    /// <summary>Watch settings from the plant file, overridden by environment variables (FOULINGWATCH_WATCH__DROPFOLDER, …) and then by command-line options.</summary>
+    /// <summary>Watch settings from the plant file, overridden by environment variables (FOULINGWATCH_WATCH__DROPFOLDER, __STORE, __OUT, __LOG, __POLLSECONDS) and then by command-line options.</summary>
     public static WatchSettings Settings(PlantConfiguration config, IConfiguration environment, string? drop, string? storePath, string? outDir, TimeSpan? poll)
     {
         var w = config.Watch;
@@ -44,6 +44,7 @@ public static class WatchCommand
             DropFolder = Pick(drop, "DROPFOLDER", w.DropFolder),
             Store = Pick(storePath, "STORE", w.Store),
             Out = Pick(outDir, "OUT", w.Out),
+            Log = Pick(null, "LOG", w.Log),
             PollInterval = poll ?? (double.TryParse(section["POLLSECONDS"], System.Globalization.CultureInfo.InvariantCulture, out var s) ? TimeSpan.FromSeconds(s) : w.PollInterval),
         };
     }
