@@ -24,8 +24,10 @@ public sealed class SamplePlantCopy : IDisposable
     public static string FindSampleData()
     {
         for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
-            if (File.Exists(Path.Combine(d.FullName, "sample-data", "plant.json"))) return Path.Combine(d.FullName, "sample-data");
-        throw new InvalidOperationException("sample-data/plant.json not found above the test folder");
+            // the repository's copy (beside the solution), not the one the tool carries into bin folders
+            if (File.Exists(Path.Combine(d.FullName, "sample-data", "plant.json")) && File.Exists(Path.Combine(d.FullName, "FoulingWatch.sln")))
+                return Path.Combine(d.FullName, "sample-data");
+        throw new InvalidOperationException("sample-data/plant.json not found beside FoulingWatch.sln above the test folder");
     }
 
     public static (int Code, string Output, string Error) Run(params string[] args)
