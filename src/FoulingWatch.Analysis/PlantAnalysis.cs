@@ -52,6 +52,19 @@ public static class PlantAnalysis
         return new PlantResult(config, ingest, results, plan);
     }
 
+    /// <summary>Latest usable data older than this before the end of the data mark an exchanger stale (common practice:
+    /// a week without a usable day means the state shown is not today's).</summary>
+    public static readonly TimeSpan StaleAfter = TimeSpan.FromDays(7);
+
+    /// <summary>Days from the exchanger's latest usable data to the end of the data when beyond <see cref="StaleAfter"/>,
+    /// else null (also null when it has no usable data at all: that is said elsewhere).</summary>
+    public static double? DaysStale(ExchangerResult x, IngestResult ingest)
+    {
+        if (x.Current.LastUsable is not { } last) return null;
+        var age = ingest.IntervalStart(ingest.IntervalCount) - last;
+        return age > StaleAfter ? age.TotalDays : null;
+    }
+
     /// <summary>Why no interval is usable, in words with the top reasons and what to change; null when some are usable.</summary>
     public static string? NoUsableIntervals(IReadOnlyDictionary<string, int> counts)
     {

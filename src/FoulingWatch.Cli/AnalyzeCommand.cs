@@ -41,6 +41,8 @@ public static class AnalyzeCommand
                     : $"heat balance changed from {SiteCalendar.Date(drift.Onset, config.Site.TimeZone)}, no single sensor explains it")
                     + "; later data not used" + (note.Length > 0 ? "; " + note : "");
             note = (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note;
+            if (PlantAnalysis.DaysStale(x, result.Ingest) is { } stale)
+                note = $"STALE: latest usable data {SiteCalendar.Date(x.Current.LastUsable, config.Site.TimeZone)}, {stale:0} days before the end of the data" + (note.Length > 0 ? "; " + note : "");
             if (note.Length > 0) notes.Add($"{x.History.Exchanger.Id}: {note}");
             t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance * 1e4, "0.00"), F(c.FoulingResistanceSigma * 1e4, "0.00"),

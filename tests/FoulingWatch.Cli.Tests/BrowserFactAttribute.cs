@@ -14,6 +14,24 @@ public sealed class BrowserFactAttribute : FactAttribute
               $"and run by .ci/run, which installs it and sets {RequireVariable}=1";
 
     public BrowserFactAttribute() => Skip = SkipReason(File.Exists(Chromium), Environment.GetEnvironmentVariable(RequireVariable));
+
+    /// <summary>A further program the test needs (e.g. Debian's poppler-utils' /usr/bin/pdftotext), with its package.</summary>
+    public string? Tool
+    {
+        get => _tool;
+        set
+        {
+            _tool = value;
+            if (Skip is null && value is not null && !File.Exists(value) && Environment.GetEnvironmentVariable(RequireVariable) != "1")
+                Skip = $"the check needs {value} (apt-get install -y {Package}); skipped here, and run by .ci/run, which installs it " +
+                       $"and sets {RequireVariable}=1";
+        }
+    }
+
+    /// <summary>The Debian package of <see cref="Tool"/>.</summary>
+    public string Package { get; set; } = "poppler-utils";
+
+    private string? _tool;
 }
 
 public class BrowserFactAttributeTests

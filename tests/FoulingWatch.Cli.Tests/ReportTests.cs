@@ -24,7 +24,7 @@ public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
 {
     private static string Chromium => BrowserFactAttribute.Chromium;
 
-    private static (string Dom, string Log) Headless(string html)
+    private static (string Dom, string Log) Headless(string html, params string[] extra)
     {
         Assert.True(File.Exists(Chromium), "the browser check needs Debian's chromium (apt-get install -y chromium); .ci/run installs it");
         var profile = Path.Combine(Path.GetTempPath(), "fw-chromium-" + Guid.NewGuid().ToString("N"));
@@ -36,7 +36,7 @@ public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
         };
         foreach (var a in new[] { "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking",
                      "--disable-component-update", "--disable-sync", $"--user-data-dir={profile}", "--enable-logging=stderr", "--v=0",
-                     "--virtual-time-budget=5000", "--dump-dom", new Uri(html).AbsoluteUri })
+                     "--virtual-time-budget=5000" }.Concat(extra.Length > 0 ? extra : ["--dump-dom"]).Append(new Uri(html).AbsoluteUri))
             psi.ArgumentList.Add(a);
         using var p = Process.Start(psi)!;
         var dom = p.StandardOutput.ReadToEndAsync();
@@ -59,6 +59,36 @@ public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
         var plan = Regex.Match(dom, "<table class=\"plan\" id=\"plan-table\">.*?</table>", RegexOptions.Singleline).Value;
         Assert.Equal(6, Regex.Matches(plan, "<tr><td>\\d+</td>").Count);
         Assert.Contains("id=\"caution\"", dom);
+    }
+
+    // Screen: in a 1400 px window the page is no wider than the window (wide tables scroll in their own box). Print: the
+    // report printed to A4 keeps every plan note whole (its text, whitespace aside, is in the PDF's text), nothing cut.
+    [BrowserFact(Tool = "/usr/bin/pdftotext")]
+    public void The_report_fits_a_1400_px_window_and_prints_every_plan_note_whole()
+    {
+        var html = Path.Combine(run.Out, "report.html");
+        var (dom, _) = Headless(html, "--window-size=1400,1000", "--dump-dom");
+        var width = Regex.Match(dom, "data-page-width=\"(\\d+)/(\\d+)\"");
+        Assert.True(width.Success, "the report's page-width probe did not run");
+        Assert.True(int.Parse(width.Groups[1].Value) <= int.Parse(width.Groups[2].Value), $"page {width.Groups[1].Value} px wide in a {width.Groups[2].Value} px window");
+
+        var pdf = Path.Combine(run.Out, "report-print.pdf");
+        Headless(html, "--no-pdf-header-footer", $"--print-to-pdf={pdf}");
+        Assert.True(File.Exists(pdf) && new FileInfo(pdf).Length > 10_000, "chromium wrote no PDF");
+        var psi = new ProcessStartInfo("/usr/bin/pdftotext") { RedirectStandardOutput = true, UseShellExecute = false };
+        psi.ArgumentList.Add(pdf);
+        psi.ArgumentList.Add("-");
+        using var p = Process.Start(psi)!;
+        var text = p.StandardOutput.ReadToEnd();
+        p.WaitForExit();
+        // whitespace and hyphens aside: pdftotext joins a word hyphenated at a line end ("2026-" + "04-13" → "202604-13")
+        static string Squeeze(string s) => Regex.Replace(s, "[\\s\\-‐]+", "");
+        var printed = Squeeze(text);
+        var plan = Regex.Match(File.ReadAllText(html), "<table class=\"plan\" id=\"plan-table\">.*?</table>", RegexOptions.Singleline).Value;
+        var notes = Regex.Matches(plan, "<td(?: class=\"warn\")?>([^<]*)</td></tr>").Select(m => System.Net.WebUtility.HtmlDecode(m.Groups[1].Value))
+            .Where(n => n.Length > 0).ToList();
+        Assert.NotEmpty(notes);
+        foreach (var note in notes) Assert.Contains(Squeeze(note), printed);
     }
 
     [Fact]

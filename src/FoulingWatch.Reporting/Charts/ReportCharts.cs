@@ -43,8 +43,22 @@ public static class ReportCharts
         return plot;
     }
 
-    private static Chart Render(Plot plot, string name, string title) =>
-        new(name, title, plot.GetImageBytes(Width, Height, ImageFormat.Png), StableIds(plot.GetSvgXml(Width, Height)), Width, Height);
+    /// <summary>The report page's font, so charts and text match (installed with fonts-dejavu-core; elsewhere the
+    /// renderer falls back to a system sans-serif).</summary>
+    public const string FontName = "DejaVu Sans";
+
+    private static Chart Render(Plot plot, string name, string title)
+    {
+        plot.Font.Set(FontName);
+        HideEmptyLegend(plot);
+        return new(name, title, plot.GetImageBytes(Width, Height, ImageFormat.Png), StableIds(plot.GetSvgXml(Width, Height)), Width, Height);
+    }
+
+    /// <summary>A legend lists only what is drawn: nothing drawn with a label, no legend.</summary>
+    private static void HideEmptyLegend(Plot plot)
+    {
+        if (!plot.GetPlottables().Any(p => p.LegendItems.Any(i => !string.IsNullOrEmpty(i.LabelText)))) plot.HideLegend();
+    }
 
     /// <summary>The SVG canvas numbers its clip paths with a process-wide counter; renumber them per file so identical inputs give identical files.</summary>
     private static string StableIds(string svg)
@@ -93,6 +107,7 @@ public static class ReportCharts
             if (!labelled) { line.LegendText = "fitted fouling law"; labelled = true; }
         }
         var cycle = x.Trend.Cycles.LastOrDefault();
+        var forecastDrawn = false;
         if (x.Trend.Forecast is { } f && cycle?.Chosen?.Fit is { } cf && daily.Count > 0)
         {
             var now = daily[^1].Day.AddDays(1);
@@ -112,14 +127,20 @@ public static class ReportCharts
                     hi[i] = (x.Trend.Draws?.ValueQuantile(ts[i], 0.95) ?? double.NaN) * scale;
                 }
                 var xs = ts.Select(t => X(cycle.Start + TimeSpan.FromDays(t))).ToArray();
-                var fb = plot.Add.FillY(xs, lo, hi);
-                fb.FillStyle.Color = Orange.WithAlpha(0.3);
-                fb.LineStyle.Width = 0;
-                fb.LegendText = "forecast, 90 % band";
+                if (lo.Zip(hi).Any(p => double.IsFinite(p.First) && double.IsFinite(p.Second) && p.Second > p.First))
+                {
+                    var fb = plot.Add.FillY(xs, lo, hi);
+                    fb.FillStyle.Color = Orange.WithAlpha(0.3);
+                    fb.LineStyle.Width = 0;
+                    fb.LegendText = "forecast, 90 % band";
+                    forecastDrawn = true;
+                }
                 var fl = plot.Add.ScatterLine(xs, ts.Select(t => cycle.Chosen.Model.Value(cf.Parameters, t) * scale).ToArray());
                 fl.Color = Orange;
                 fl.LineWidth = 2;
                 fl.LinePattern = LinePattern.Dashed;
+                fl.LegendText = "forecast (chosen law)";
+                forecastDrawn = true;
             }
             var limit = plot.Add.HorizontalLine(f.Limit * scale);
             limit.Color = Black;
@@ -127,7 +148,8 @@ public static class ReportCharts
             limit.LineWidth = 1.5f;
             limit.LegendText = "limit";
         }
-        foreach (var c in x.Trend.Cleanings)
+        // Cleanings before the first daily point lie outside the plotted data: not drawn, so not in the legend.
+        foreach (var c in x.Trend.Cleanings.Where(c => daily.Count > 0 && c.Cleaning.Date >= daily[0].Day))
         {
             var v = plot.Add.VerticalLine(X(c.Cleaning.Date));
             v.Color = Green;
@@ -135,9 +157,18 @@ public static class ReportCharts
             v.LinePattern = c.Cleaning.Source == CleaningSource.Logged ? LinePattern.Solid : LinePattern.Dashed;
             v.LegendText = c.Cleaning.Source == CleaningSource.Logged ? "cleaning (logged)" : "cleaning (detected)";
         }
+        if (x.History.Drift is { } drift)
+        {
+            var d = plot.Add.VerticalLine(X(drift.Onset));
+            d.Color = Purple;
+            d.LineWidth = 2f;
+            d.LinePattern = LinePattern.DenselyDashed;
+            d.LegendText = "instrument drift onset (later data not used)";
+        }
         DedupLegend(plot);
         plot.ShowLegend(Alignment.UpperLeft);
-        return Render(plot, "rf", "Fouling resistance with fit and forecast");
+        var title = "Fouling resistance" + (labelled ? forecastDrawn ? " with fit and forecast" : " with fit" : forecastDrawn ? " with forecast" : "");
+        return Render(plot, "rf", title);
     }
 
     private static void DedupLegend(Plot plot)

@@ -18,7 +18,15 @@ public static class HtmlReport
 {
     private static readonly CultureInfo Inv = CultureInfo.InvariantCulture;
 
-    public static string Build(PlantResult r, IReadOnlyDictionary<string, IReadOnlyList<Chart>> exchangerCharts, IReadOnlyList<Chart> siteCharts)
+    /// <summary>The tool's version as built (informational version, with the source revision when the build knew it).</summary>
+    public static string Version { get; } =
+        typeof(HtmlReport).Assembly.GetCustomAttributes(typeof(System.Reflection.AssemblyInformationalVersionAttribute), false)
+            .OfType<System.Reflection.AssemblyInformationalVersionAttribute>().FirstOrDefault()?.InformationalVersion is { } v
+            ? v.Length > v.IndexOf('+') + 8 && v.Contains('+') ? v[..(v.IndexOf('+') + 8)] : v
+            : "unknown";
+
+    public static string Build(PlantResult r, IReadOnlyDictionary<string, IReadOnlyList<Chart>> exchangerCharts, IReadOnlyList<Chart> siteCharts,
+        DateTimeOffset? runTime = null)
     {
         var sb = new StringBuilder();
         var cfg = r.Configuration;
@@ -34,7 +42,9 @@ public static class HtmlReport
         sb.Append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
         sb.Append($"<title>FoulingWatch report — {H(cfg.Site.Name)}</title>\n<style>\n{Css}\n</style>\n</head>\n<body>\n");
         var last = r.Ingest.GridStart + r.Ingest.Interval * r.Ingest.IntervalCount;
-        sb.Append($"<header><h1>Fouling report — {H(cfg.Site.Name)}</h1><p class=\"meta\">Data {D(r.Ingest.GridStart)} to {D(last)} · {r.Ingest.IntervalCount:N0} intervals of {r.Ingest.Interval.TotalMinutes:0} min · {r.Exchangers.Count} exchangers · money in {H(currency)}</p></header>\n");
+        var run = TimeZoneInfo.ConvertTime(runTime ?? DateTimeOffset.UtcNow, zone);
+        sb.Append($"<header><h1>Fouling report — {H(cfg.Site.Name)}</h1><p class=\"meta\">Data {D(r.Ingest.GridStart)} to {D(last)} · {r.Ingest.IntervalCount:N0} intervals of {r.Ingest.Interval.TotalMinutes:0} min · {r.Exchangers.Count} exchangers · money in {H(currency)}</p>");
+        sb.Append($"<p class=\"meta\" id=\"provenance\">FoulingWatch {H(Version)} · configuration {H(Path.GetFileName(cfg.File))} · run {run.ToString("yyyy-MM-dd HH:mm zzz", Inv)} · dates are site-local calendar dates ({H(zone.Id)}), chart axes in UTC</p></header>\n");
         sb.Append($"<aside class=\"caution\" id=\"caution\"><strong>Caution.</strong> {H(ResultWriter.Caution)}</aside>\n");
 
         // Site summary: the energy audit of the last 12 months.
@@ -77,6 +87,8 @@ public static class HtmlReport
             if (x.History.Refusal is not null) sb.Append($"<p class=\"warn\">{H(x.History.Refusal)}</p>\n");
             sb.Append("<table class=\"state\"><tbody>");
             sb.Append($"<tr><th>state on</th><td>{D(cur.LastUsable)} (median of the last day's {cur.Samples} usable samples)</td></tr>");
+            if (PlantAnalysis.DaysStale(x, r.Ingest) is { } stale)
+                sb.Append($"<tr><th>stale</th><td class=\"warn\">STALE: the latest usable data are from {D(cur.LastUsable)}, {stale:0} days before the end of the data; the state and forecast describe that day, not today</td></tr>");
             sb.Append($"<tr><th>U actual / clean</th><td>{N(cur.UActual)} / {N(cur.UClean)} W/m²·K · cleanliness {N(cur.Cleanliness, "0.00")}</td></tr>");
             sb.Append($"<tr><th>fouling resistance</th><td>{N(cur.FoulingResistance * 1e4, "0.00")} ± {N(cur.FoulingResistanceSigma * 1e4, "0.00")} × 10⁻⁴ m²·K/W</td></tr>");
             sb.Append($"<tr><th>duty / lost duty</th><td>{N(cur.Duty / 1000)} kW / {N(cur.LostDuty / 1000)} kW</td></tr>");
@@ -121,9 +133,10 @@ public static class HtmlReport
         foreach (var m in Methods) sb.Append($"<li>{H(m)}</li>");
         sb.Append("</ul></section>\n");
         sb.Append($"<footer><p>{H(ResultWriter.Caution)}</p><p>Written by FoulingWatch from the plant configuration {H(Path.GetFileName(cfg.File))}.</p></footer>\n");
-        sb.Append("<script>window.addEventListener('load',function(){var im=document.images,ok=0;for(var i=0;i<im.length;i++){if(im[i].complete&&im[i].naturalWidth>0)ok++;}document.body.setAttribute('data-images',ok+'/'+im.length);});</script>\n");
+        sb.Append("<script>window.addEventListener('load',function(){var im=document.images,ok=0;for(var i=0;i<im.length;i++){if(im[i].complete&&im[i].naturalWidth>0)ok++;}document.body.setAttribute('data-images',ok+'/'+im.length);document.body.setAttribute('data-page-width',document.documentElement.scrollWidth+'/'+window.innerWidth);});</script>\n");
         sb.Append("</body>\n</html>\n");
-        return sb.ToString();
+        // Every table scrolls in its own box on screen (the page never grows wider than the window) and wraps in print.
+        return sb.Replace("<table", "<div class=\"scroll\"><table").Replace("</table>", "</table></div>").ToString();
     }
 
     private static string Card(string title, string value, string note) =>
@@ -139,7 +152,7 @@ public static class HtmlReport
         sb.Append("<th class=\"n\">intervals ok / bridged / missing</th></tr></thead><tbody>");
         foreach (var l in ledgers)
         {
-            sb.Append($"<tr><td>{WebUtility.HtmlEncode(l.Tag)}</td><td class=\"n\">{l.Read:N0}</td><td class=\"n\">{l.Used:N0}</td>");
+            sb.Append($"<tr><td><span class=\"tag\">{WebUtility.HtmlEncode(l.Tag)}</span></td><td class=\"n\">{l.Read:N0}</td><td class=\"n\">{l.Used:N0}</td>");
             foreach (var v in l.Rejected) sb.Append($"<td class=\"n\">{v:N0}</td>");
             sb.Append($"<td class=\"n\">{l.IntervalsWithData:N0} / {l.IntervalsBridged:N0} / {l.IntervalsMissing:N0}</td></tr>");
         }
@@ -152,7 +165,8 @@ public static class HtmlReport
         "Petroleum liquids: heat capacity by Kesler & Lee (Hydrocarbon Processing 55(3), 1976), as in the API Technical Data Book procedure 7D2.2, from API gravity or specific gravity and Watson K.",
         "Duty Q = ṁ·Δh per stream; the balance mismatch between hot and cold duties flags the sample beyond the configured tolerance. Optional data reconciliation by weighted least squares subject to the energy balance (Narasimhan & Jordache, 2000), with the χ² global test.",
         "Actual U = Q/(A·F·LMTD); F by Bowman, Mueller & Nagle (1940) for 1-2N shells, and from the effectiveness-NTU relations (Kays & London) for the other arrangements.",
-        "Clean U at today's flows: from the datasheet with each film scaled as h ∝ ṁⁿ (tube 0.8, Dittus–Boelter; shell 0.6, common practice), or fitted after a cleaning by the Wilson-plot method (Wilson, 1915).",
+        "Clean U at today's flows: from the datasheet with each film scaled as h ∝ ṁⁿ (tube 0.8, Dittus–Boelter; shell 0.6, common practice), or fitted after a cleaning by the Wilson-plot method (Wilson, 1915) with a fouling term for the deposits growing meanwhile and the intercept held at its physical minimum; refitted after every logged cleaning as a health indicator.",
+        "Instrument drift: two-sided tabular CUSUM (Page, 1954) on the daily heat-balance mismatch over the whole record, the onset dated by two-phase least squares, the sensor by the bias that best explains the mismatch; data after the onset are not used for fouling.",
         "Fouling resistance Rf = 1/U − 1/U_clean; its uncertainty by first-order propagation of the sensor accuracies (in the manner of ASME PTC 19.1); lost duty by effectiveness-NTU at U_clean and at U with today's inlets and flows.",
         "Trends: daily medians; cleanings from the maintenance log and detected as sustained falls; per cycle linear, asymptotic (Kern & Seaton, 1959) and falling-rate laws fitted by Levenberg–Marquardt, chosen by AICc; limit dates with a 90 % interval by parametric bootstrap of the parameter covariance.",
         "Economics: lost duty made up by heater fuel (÷ efficiency), CO2 by IPCC 2006 default factors; cost-optimal cleaning interval minimising the average cost rate (C + ∫c dt)/(t + τ), t* = √(2C/β) for linear cost growth; windows assigned by an exact min-cost-flow solution of the capacity-constrained assignment.",
@@ -171,6 +185,10 @@ public static class HtmlReport
         figure{margin:.8em 0;page-break-inside:avoid} figure img{max-width:100%;height:auto;border:1px solid #e3e6ea} figcaption{font-size:.85em;color:#555}
         footer{margin:2em 0;font-size:.85em;color:#555;border-top:1px solid #ccd}
         a{color:#0072B2} table.plan td:last-child{min-width:280px} table.plan td:nth-child(3),table.plan td:nth-child(4){white-space:nowrap}
-        @media print{body{max-width:none;font-size:10pt} section.exchanger{page-break-before:always} .caution{border:1px solid #E69F00} a{color:inherit;text-decoration:none}}
+        .scroll{overflow-x:auto;max-width:100%} .tag{white-space:nowrap}
+        @media print{body{max-width:none;font-size:9pt;padding:0} section.exchanger{page-break-before:always} .caution{border:1px solid #E69F00} a{color:inherit;text-decoration:none}
+          .scroll{overflow:visible} table{font-size:7.5pt} th,td{padding:.2em .3em} td{overflow-wrap:break-word} table.plan td:last-child{min-width:0}
+          th.n{white-space:normal} .tag{white-space:nowrap} tr{break-inside:avoid;page-break-inside:avoid}}
+        @page{size:A4;margin:12mm}
         """;
 }
