@@ -13,7 +13,7 @@ public static class AnalyzeCommand
         DateTimeOffset? auditFrom = null, DateTimeOffset? auditTo = null)
     {
         var config = PlantConfigurationReader.Load(configPath);
-        var progress = quiet || json || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null : new Progress<(string Stage, double Fraction)>(p => error.Write("\r" + ProgressLine(p.Stage, p.Fraction)));
+        var progress = ProgressOn(quiet || json, error);
         var result = PlantAnalysis.Run(config, progress);
         if (auditFrom is not null || auditTo is not null)
             result = result with { AuditPeriod = (auditFrom ?? result.Ingest.GridStart, auditTo ?? result.Ingest.IntervalStart(result.Ingest.IntervalCount)) };
@@ -57,11 +57,18 @@ public static class AnalyzeCommand
         return FoulingWatchCommand.Success;
     }
 
+    /// <summary>A one-line progress display on an interactive terminal's standard error, or null (quiet, JSON, redirected).</summary>
+    private static IProgress<(string Stage, double Fraction)>? ProgressOn(bool silent, TextWriter error) =>
+        silent || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null
+            : new Progress<(string Stage, double Fraction)>(p => error.Write("\r" + ProgressLine(p.Stage, p.Fraction)));
+
     /// <summary><c>foulingwatch plan</c>: the same run as analyze (the plan needs the whole pipeline), printing the ranked plan.</summary>
     public static int RunPlan(string configPath, string outDirectory, bool json, bool quiet, TextWriter output, TextWriter error)
     {
         var config = PlantConfigurationReader.Load(configPath);
-        var result = PlantAnalysis.Run(config);
+        var progress = ProgressOn(quiet || json, error);
+        var result = PlantAnalysis.Run(config, progress);
+        if (progress is not null) error.Write("\r" + new string(' ', 90) + "\r");
         ResultWriter.Write(result, outDirectory);
         if (json) output.WriteLine(System.Text.Json.JsonSerializer.Serialize(ResultWriter.Plan(result), ResultWriter.Json));
         else if (!quiet)

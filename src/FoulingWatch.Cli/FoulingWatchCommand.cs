@@ -40,8 +40,8 @@ public static class FoulingWatchCommand
         analyze.Options.Add(outOption);
         analyze.Options.Add(jsonOption);
         analyze.Options.Add(quietOption);
-        var auditFrom = new Option<DateTimeOffset?>("--audit-from") { Description = "Start of the energy-audit period (UTC date or time; default: 12 months before the end of the data)." };
-        var auditTo = new Option<DateTimeOffset?>("--audit-to") { Description = "End (exclusive) of the energy-audit period (default: the end of the data)." };
+        var auditFrom = new Option<DateTimeOffset?>("--audit-from") { Description = "Start of the energy-audit period (UTC date or time; default: 12 months before the end of the data).", CustomParser = r => DateArgument(r, "--audit-from") };
+        var auditTo = new Option<DateTimeOffset?>("--audit-to") { Description = "End (exclusive) of the energy-audit period (default: the end of the data).", CustomParser = r => DateArgument(r, "--audit-to") };
         analyze.Options.Add(auditFrom);
         analyze.Options.Add(auditTo);
         analyze.SetAction(p => Guard(error, () => AnalyzeCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(outOption)!.FullName,
@@ -49,11 +49,12 @@ public static class FoulingWatchCommand
         root.Subcommands.Add(analyze);
 
         var plan = new Command("plan", "Cost of fouling and the cleaning plan: which exchanger to clean in which shutdown window, and what it saves.");
+        var planOut = new Option<DirectoryInfo>("--out", "-o") { Description = "Folder for the results (created if needed; default foulingwatch-plan).", DefaultValueFactory = _ => new DirectoryInfo("foulingwatch-plan") };
         plan.Options.Add(configOption);
-        plan.Options.Add(outOption);
+        plan.Options.Add(planOut);
         plan.Options.Add(jsonOption);
         plan.Options.Add(quietOption);
-        plan.SetAction(p => Guard(error, () => AnalyzeCommand.RunPlan(p.GetValue(configOption)!.FullName, p.GetValue(outOption)!.FullName,
+        plan.SetAction(p => Guard(error, () => AnalyzeCommand.RunPlan(p.GetValue(configOption)!.FullName, p.GetValue(planOut)!.FullName,
             p.GetValue(jsonOption), p.GetValue(quietOption), output, error)));
         root.Subcommands.Add(plan);
 
@@ -98,6 +99,17 @@ public static class FoulingWatchCommand
     }
 
     private static DateTimeOffset? ToUtc(DateTimeOffset? t) => t?.ToUniversalTime();
+
+    /// <summary>A date or time option: ISO 8601, read as UTC when it has no offset; otherwise an error saying what to write.</summary>
+    public static DateTimeOffset? DateArgument(System.CommandLine.Parsing.ArgumentResult result, string option)
+    {
+        var text = result.Tokens.Count > 0 ? result.Tokens[0].Value : "";
+        if (DateTimeOffset.TryParse(text, System.Globalization.CultureInfo.InvariantCulture,
+                System.Globalization.DateTimeStyles.AssumeUniversal | System.Globalization.DateTimeStyles.AdjustToUniversal, out var t))
+            return t;
+        result.AddError($"{option}: '{text}' is not a date; write it as yyyy-MM-dd (UTC midnight) or an ISO 8601 time such as 2026-01-01T06:00Z.");
+        return null;
+    }
 
     /// <summary>Runs a command body, turning known failures into a message on stderr and the documented exit code.</summary>
     public static int Guard(TextWriter error, Func<int> body)

@@ -5,6 +5,15 @@ namespace FoulingWatch.Cli.Tests;
 public class CommandTests
 {
     [Fact]
+    public void A_date_option_that_is_not_a_date_says_how_to_write_one()
+    {
+        var (code, _, error) = SamplePlantCopy.Run("analyze", "--config", "plant.json", "--out", "o", "--audit-from", "notadate");
+        Assert.NotEqual(0, code);
+        Assert.Contains("--audit-from: 'notadate' is not a date; write it as yyyy-MM-dd (UTC midnight) or an ISO 8601 time such as 2026-01-01T06:00Z.", error);
+        Assert.DoesNotContain("System.", error);
+    }
+
+    [Fact]
     public void Unknown_command_is_a_usage_error()
         => Assert.Equal(FoulingWatchCommand.UsageOrConfigurationError, SamplePlantCopy.Run("no-such-command").Code);
 

@@ -188,8 +188,10 @@ public static class UnitCatalog
         Add(Dimension.TemperatureDifference, FahrenheitDegree, 0.0, "degF", "°F", "F", "delta degF", "degR", "°R");
 
         Add(Dimension.MassFlow, 1.0, 0.0, "kg/s");
+        Add(Dimension.MassFlow, 1.0 / 60.0, 0.0, "kg/min");
         Add(Dimension.MassFlow, 1.0 / Hour, 0.0, "kg/h", "kg/hr");
         Add(Dimension.MassFlow, 1000.0 / Hour, 0.0, "t/h", "te/h", "tonne/h", "t/hr");
+        Add(Dimension.MassFlow, 1000.0 / 60.0, 0.0, "t/min");
         Add(Dimension.MassFlow, 1000.0 / Day, 0.0, "t/d", "tonne/d");
         Add(Dimension.MassFlow, Pound / Hour, 0.0, "lb/h", "lb/hr", "lbm/h");
         Add(Dimension.MassFlow, 1000.0 * Pound / Hour, 0.0, "klb/h", "klb/hr", "Mlb/h");
@@ -260,8 +262,8 @@ public static class UnitCatalog
         Add(Dimension.Velocity, 1.0, 0.0, "m/s");
         Add(Dimension.Velocity, Foot, 0.0, "ft/s");
 
-        Add(Dimension.Duration, 1.0, 0.0, "s");
-        Add(Dimension.Duration, 60.0, 0.0, "min");
+        Add(Dimension.Duration, 1.0, 0.0, "s", "sec", "secs", "second", "seconds");
+        Add(Dimension.Duration, 60.0, 0.0, "min", "mins", "minute", "minutes");
         Add(Dimension.Duration, Hour, 0.0, "h", "hr", "hour", "hours");
         Add(Dimension.Duration, Day, 0.0, "d", "day", "days");
 

@@ -91,8 +91,19 @@ public class UnitCatalogTests
     [Fact]
     public void An_unknown_unit_is_refused_with_the_accepted_list()
     {
-        var ex = Assert.Throws<UnknownUnitException>(() => UnitCatalog.Resolve("kg/min", Dimension.MassFlow));
-        Assert.Equal("'kg/min' is not a mass-flow unit; use kg/s, kg/h, t/h, t/d, lb/h, klb/h, lb/s.", ex.Message);
+        var ex = Assert.Throws<UnknownUnitException>(() => UnitCatalog.Resolve("kg/fortnight", Dimension.MassFlow));
+        Assert.Equal("'kg/fortnight' is not a mass-flow unit; use kg/s, kg/min, kg/h, t/h, t/min, t/d, lb/h, klb/h, lb/s.", ex.Message);
+    }
+
+    // Definitions (SI: 1 min = 60 s): a flow per minute is 1/60 of the same per second; minutes spelled as people write them.
+    [Fact]
+    public void Flows_per_minute_and_durations_in_minutes_are_read()
+    {
+        Assert.Equal(1.0 / 60.0, UnitCatalog.Resolve("kg/min", Dimension.MassFlow).Scale, 15);
+        Assert.Equal(1000.0 / 60.0, UnitCatalog.Resolve("t/min", Dimension.MassFlow).Scale, 15);
+        foreach (var unit in new[] { "min", "mins", "minute", "minutes" })
+            Assert.Equal(600.0, UnitCatalog.ParseToSi($"10 {unit}", Dimension.Duration), 12);
+        Assert.Equal(30.0, UnitCatalog.ParseToSi("30 secs", Dimension.Duration), 12);
     }
 
     [Fact]
