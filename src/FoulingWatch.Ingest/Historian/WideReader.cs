@@ -230,6 +230,7 @@ public static partial class HistorianIngest
                     else length += n;
                 }
                 if (length == 0) yield break;
+                BalanceQuotesPerLine(buffer.AsSpan(0, length), end);
                 var lines = 0;
                 var plain = false;
                 var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines, out plain);
@@ -260,6 +261,50 @@ public static partial class HistorianIngest
         finally
         {
             ArrayPool<byte>.Shared.Return(buffer);
+        }
+    }
+
+    /// <summary>Most line breaks a quoted field may hold (RFC 4180 allows them; a note in an export has one or two).</summary>
+    public const int MaxLineBreaksInField = 2;
+
+    /// <summary>
+    /// A quote that a line leaves open and that no line within the next <see cref="MaxLineBreaksInField"/> closes is a
+    /// stray character (a damaged value such as <c>"150</c>), not the start of a field running on to the next quote in
+    /// the file, which would swallow every row up to it into one value. Its line's quotes become apostrophes: the line
+    /// still splits at its delimiters, the damaged value is rejected as text and counted, and no other row is lost.
+    /// Quoted fields that close within the allowance, line breaks and all, are left as they are. Lines still undecided
+    /// at the end of <paramref name="data"/> (more to read) are left for the next pass.
+    /// </summary>
+    internal static void BalanceQuotesPerLine(Span<byte> data, bool atEnd)
+    {
+        if (data.IndexOf((byte)'"') < 0) return;
+        static bool Odd(ReadOnlySpan<byte> line) => (line.Count((byte)'"') & 1) == 1;
+        var start = 0;
+        while (start < data.Length)
+        {
+            var lf = data[start..].IndexOf((byte)'\n');
+            if (lf < 0 && !atEnd) return;
+            var line = lf < 0 ? data[start..] : data.Slice(start, lf);
+            var next = lf < 0 ? data.Length : start + lf + 1;
+            if (Odd(line))
+            {
+                // look for the line that closes the field within the allowance
+                var closedAt = -1;
+                var pos = next;
+                for (var k = 0; k < MaxLineBreaksInField && closedAt < 0; k++)
+                {
+                    if (pos >= data.Length) { if (!atEnd) return; break; }
+                    var lf2 = data[pos..].IndexOf((byte)'\n');
+                    if (lf2 < 0 && !atEnd) return;
+                    var following = lf2 < 0 ? data[pos..] : data.Slice(pos, lf2);
+                    var after = lf2 < 0 ? data.Length : pos + lf2 + 1;
+                    if (Odd(following)) closedAt = after;
+                    pos = after;
+                }
+                if (closedAt >= 0) { start = closedAt; continue; }
+                line.Replace((byte)'"', (byte)'\'');
+            }
+            start = next;
         }
     }
 

@@ -83,6 +83,34 @@ public class FilePartsTests
         }
     }
 
+    // A stray quote opening a field (a damaged value, '"150') must not swallow the rows after it into one field up to
+    // the next quote: every row is read, the damaged value alone is rejected (as text) and counted, whatever the part size.
+    [Theory]
+    [InlineData(false)]
+    [InlineData(true)]
+    public void A_stray_quote_loses_one_value_not_the_rows_after_it(bool laterQuotedRecord)
+    {
+        var sb = new StringBuilder("Timestamp,FI-101,TI-101,TI-102,FI-201,TI-201,TI-202\n");
+        var start = new DateTime(2026, 3, 2, 0, 0, 0, DateTimeKind.Utc);
+        for (var m = 0; m < 2880; m++)
+        {
+            var t = start.AddMinutes(m).ToString("yyyy-MM-ddTHH:mm:ssZ", System.Globalization.CultureInfo.InvariantCulture);
+            var hot = m == 10 ? "\"150.5" : "150.5";
+            var note = laterQuotedRecord && m == 2000 ? ",\"a, quoted note\"" : "";
+            sb.Append(System.Globalization.CultureInfo.InvariantCulture, $"{t},100.{m % 10},{hot},90.1,120.2,30.3,60.4{note}\n");
+        }
+        using var plant = new TestPlant().WithFile("stray.csv", sb.ToString())
+            .WithConfig("""{ "files": ["stray.csv"], "timestamp": { "column": "Timestamp" } }""", data: "\"interval\": \"10 min\"");
+        var whole = Read(plant.ConfigPath, null);
+        Assert.Equal(2880, whole.Files.Single().DataRows);
+        var ti = whole.TagLedgers["TI-101"];
+        Assert.Equal(2880, ti.Read);
+        Assert.Equal(2879, ti.Used);
+        Assert.Equal(1, ti.Rejected[(int)RejectReason.TextMarker]);
+        Assert.Equal(2880, whole.TagLedgers["TI-102"].Used);
+        foreach (var size in new[] { 100, 4096 }) AssertSame(whole, Read(plant.ConfigPath, size));
+    }
+
     [Theory]
     [InlineData("1,2\n3,4\n", true)]
     [InlineData("1,2\r\n3,4\r\n", true)]
