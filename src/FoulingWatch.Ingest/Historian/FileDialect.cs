@@ -166,6 +166,8 @@ public static class FileDialectDetector
         var n = 0;
         for (var i = headerIndex + 1; i < lines.Count && n < 20; i++, n++)
         {
+            // The readers skip empty lines, so an empty line is no unit row: counting it would skip the first data row.
+            if (lines[i].Text.Length == 0) { n--; continue; }
             var fields = SplitLine(lines[i].Text, delimiter);
             var ts = tsColumn >= 0 && tsColumn < fields.Count ? fields[tsColumn] : "";
             if (TimestampParser.LooksLikeTimestamp(ts, source.Timestamp)) break;

@@ -139,6 +139,11 @@ public static partial class HistorianIngest
         {
             if (i == tsColumn || !channels.TryGetValue(header[i], out var c)) continue;
             if (c.Reference.Source is not null && c.Reference.Source != source.Id) continue;
+            // Two columns of one tag would be merged into one series and counted twice: refuse, naming both.
+            if (plans.FirstOrDefault(p => p.Channel == c) is { } earlier)
+                throw new IngestException(file, dialect.HeaderLine, null,
+                    $"the header has tag '{header[i]}' in columns {earlier.Index + 1} and {i + 1}; a tag must have one column. " +
+                    "Remove or rename one of them in the export (or export the tag once).");
             plans.Add(new ColumnPlan(i, c));
             (foundIn.TryGetValue(c.Reference.Tag, out var l) ? l : foundIn[c.Reference.Tag] = []).Add(file);
         }

@@ -111,6 +111,37 @@ public class FilePartsTests
         foreach (var size in new[] { 100, 4096 }) AssertSame(whole, Read(plant.ConfigPath, size));
     }
 
+    // A tag in two header columns would be merged and counted twice: the export is refused with both columns named.
+    [Fact]
+    public void A_tag_in_two_header_columns_is_refused_naming_both()
+    {
+        var csv = "Timestamp,FI-101,TI-101,TI-102,FI-201,TI-201,TI-202,TI-101\n2026-03-02T00:00:00Z,100,150,90,120,30,60,151\n";
+        using var plant = new TestPlant().WithFile("twice.csv", csv)
+            .WithConfig("""{ "files": ["twice.csv"] }""", data: "\"interval\": \"10 min\"");
+        var ex = Assert.Throws<IngestException>(() => Read(plant.ConfigPath, null));
+        Assert.Contains("twice.csv", ex.Message);
+        Assert.Contains("the header has tag 'TI-101' in columns 3 and 8; a tag must have one column.", ex.Message);
+    }
+
+    // An empty line between the header and the data is skipped, not taken for a unit row: the first data row is read.
+    [Theory]
+    [InlineData("\n")]
+    [InlineData("\r\n")]
+    public void An_empty_line_after_the_header_is_not_a_unit_row(string newline)
+    {
+        var sb = new StringBuilder("Timestamp,FI-101,TI-101,TI-102,FI-201,TI-201,TI-202" + newline + newline);
+        for (var m = 0; m < 288; m++)
+            sb.Append(System.Globalization.CultureInfo.InvariantCulture,
+                $"{new DateTime(2026, 3, 2, 0, 0, 0, DateTimeKind.Utc).AddMinutes(10 * m):yyyy-MM-ddTHH:mm:ssZ},{100 + m % 7},150,90,120,30,60{newline}");
+        using var plant = new TestPlant().WithFile("blank.csv", sb.ToString())
+            .WithConfig("""{ "files": ["blank.csv"] }""", data: "\"interval\": \"10 min\"");
+        var r = Read(plant.ConfigPath, null);
+        var file = r.Files.Single();
+        Assert.Equal((0, 288L), (file.MetadataRows, (long)file.DataRows));
+        Assert.Equal(288, r.TagLedgers["FI-101"].Used);
+        Assert.Equal(100, r.Series["FI-101"][0] * 3.6, 9);
+    }
+
     [Theory]
     [InlineData("1,2\n3,4\n", true)]
     [InlineData("1,2\r\n3,4\r\n", true)]
