@@ -164,8 +164,38 @@ public class WatchTests
             var lines = File.ReadAllLines(loop.AlertsFile);
             Assert.Equal(1, lines.Count(l => l.Contains("\"kind\":\"data-stopped\"") && l.Contains("\"state\":\"raised\"")));
             Assert.Equal(1, lines.Count(l => l.Contains("\"kind\":\"data-stopped\"") && l.Contains("\"state\":\"cleared\"")));
-            Assert.Equal(1, lines.Count(l => l.Contains("\"kind\":\"limit\"")));
+            Assert.Equal(1, lines.Count(l => l.Contains("\"kind\":\"limit\"") && l.Contains("\"state\":\"raised\"")));
             Assert.NotNull(limit);
+            // written for people: no \uXXXX escapes for +, <, >, & or non-ASCII letters
+            Assert.DoesNotContain(lines, l => l.Contains("\\u"));
+        }
+    }
+
+    [Fact]
+    public void An_open_alert_follows_its_facts_and_a_stray_drop_file_is_ignored()
+    {
+        using var plant = new WatchPlant(", \"staleAfter\": \"2 d\"");
+        var clock = new ManualClock(new DateTimeOffset(2026, 1, 14, 0, 0, 0, TimeSpan.Zero));
+        var (loop, store, _) = Start(plant, clock);
+        using (store)
+        {
+            File.WriteAllText(Path.Combine(plant.Drop, "export-01.csv"), WatchPlant.Header + WatchPlant.Rows(0, 10));
+            File.WriteAllText(Path.Combine(plant.Drop, "notes.txt"), "not an export");
+            loop.Poll();
+            clock.Advance(TimeSpan.FromSeconds(3));
+            Assert.Equal(1, loop.Poll());                       // notes.txt matches no source: ignored
+            var stale = Assert.Single(store.Alerts(activeOnly: true), a => a.Kind == "data-stopped");
+            Assert.Contains("since 2026-01-10 23:59 UTC", stale.Message);
+
+            // a day more of data, still more than two days old: the same episode, its text updated
+            File.WriteAllText(Path.Combine(plant.Drop, "export-02.csv"), WatchPlant.Header + WatchPlant.Rows(10, 11));
+            loop.Poll();
+            clock.Advance(TimeSpan.FromSeconds(3));
+            loop.Poll();
+            var updated = Assert.Single(store.Alerts(activeOnly: true), a => a.Kind == "data-stopped");
+            Assert.Equal(stale.Id, updated.Id);
+            Assert.Contains("since 2026-01-11 23:59 UTC", updated.Message);
+            Assert.Single(File.ReadAllLines(loop.AlertsFile), l => l.Contains("\"state\":\"updated\"") && l.Contains("2026-01-11 23:59"));
         }
     }
 

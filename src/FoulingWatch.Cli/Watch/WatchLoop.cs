@@ -23,6 +23,12 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
 
     public string AlertsFile => Path.Combine(settings.Out, "alerts.jsonl");
 
+    /// <summary>Alert lines keep +, &lt;, &gt;, &amp; and non-ASCII letters as written (the file is read by people and log
+    /// tools, not embedded in HTML).</summary>
+    private static readonly JsonSerializerOptions AlertJson = new() { Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
+
+    private readonly HashSet<string> _unmatched = new(StringComparer.Ordinal);
+
     /// <summary>Runs one pass; returns the number of files ingested.</summary>
     public int Poll()
     {
@@ -33,7 +39,13 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
             var name = Path.GetFileName(path);
             if (name.EndsWith(".tmp", StringComparison.OrdinalIgnoreCase) || name.StartsWith('.')) continue;
             var source = config.Data.Sources.FirstOrDefault(s => s.Patterns.Any(p => FileSystemName.MatchesSimpleExpression(p, name)));
-            if (source is null) continue;
+            if (source is null)
+            {
+                if (_unmatched.Add(name))
+                    log.LogWarning("Ignoring {File} in the drop folder: it matches no source's file patterns ({Patterns}); rename it or add a pattern to data.sources[].files",
+                        name, string.Join(", ", config.Data.Sources.SelectMany(s => s.Patterns)));
+                continue;
+            }
             if (!IsSettled(path)) continue;
             try
             {
@@ -113,9 +125,11 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
             var inserted = store.Ingest(stored, values, result.TagLedgers.Where(kv => kv.Value.Read > 0).ToDictionary(kv => kv.Key, kv => kv.Value));
             log.LogInformation("Ingested {File} ({Mode}): {New} new values of {Read} read, {Rejected} rejected",
                 name, readFrom > 0 ? "new rows only" : "whole file", inserted.Values.Sum(), result.TagLedgers.Values.Sum(l => l.Read), result.TagLedgers.Values.Sum(l => l.RejectedTotal));
-            foreach (var (tag, l) in result.TagLedgers.Where(kv => kv.Value.RejectedTotal > 0))
-                log.LogWarning("Rejected {Rows} values of {Tag} in {File}: {Reasons}", l.RejectedTotal, tag, name,
-                    string.Join(", ", RejectReasons.All.Where(r => l.Rejected[(int)r] > 0).Select(r => $"{r.Key()} {l.Rejected[(int)r]}")));
+            // One line per file for the rejections, by tag and reason (routine text markers are no reason for a line each).
+            var rejected = result.TagLedgers.Where(kv => kv.Value.RejectedTotal > 0).OrderBy(kv => kv.Key, StringComparer.Ordinal)
+                .Select(kv => $"{kv.Key} " + string.Join(" ", RejectReasons.All.Where(r => kv.Value.Rejected[(int)r] > 0).Select(r => $"{r.Key()} {kv.Value.Rejected[(int)r]}")))
+                .ToList();
+            if (rejected.Count > 0) log.LogInformation("Rejected values in {File} by tag and reason: {Reasons}", name, string.Join("; ", rejected));
             return true;
         }
         finally
@@ -214,7 +228,17 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         var at = clock.GetUtcNow();
         foreach (var c in now)
         {
-            if (active.Any(a => a.Exchanger == c.Exchanger && a.Kind == c.Kind)) continue;
+            if (active.FirstOrDefault(a => a.Exchanger == c.Exchanger && a.Kind == c.Kind) is { } open)
+            {
+                // Same episode, new facts (a later date, a larger bias): the text follows them.
+                if (open.Message != c.Message)
+                {
+                    store.UpdateAlertMessage(open.Id, c.Message);
+                    log.LogInformation("Alert updated for {ExchangerId}: {Kind}: {Message}", c.Exchanger, c.Kind, c.Message);
+                    AppendAlertLine(new { time = at.ToString("O"), exchanger = c.Exchanger, kind = c.Kind, state = "updated", message = c.Message, id = open.Id });
+                }
+                continue;
+            }
             var alert = store.RaiseAlert(c.Exchanger, c.Kind, c.Message, at);
             log.LogWarning("Alert raised for {ExchangerId}: {Kind}: {Message}", c.Exchanger, c.Kind, c.Message);
             AppendAlertLine(new { time = at.ToString("O"), exchanger = c.Exchanger, kind = c.Kind, state = "raised", message = c.Message, id = alert.Id });
@@ -230,6 +254,6 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
     private void AppendAlertLine(object line)
     {
         Directory.CreateDirectory(settings.Out);
-        File.AppendAllText(AlertsFile, JsonSerializer.Serialize(line) + "\n");
+        File.AppendAllText(AlertsFile, JsonSerializer.Serialize(line, AlertJson) + "\n");
     }
 }

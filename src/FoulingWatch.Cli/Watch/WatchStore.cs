@@ -269,5 +269,15 @@ public sealed class WatchStore : IDisposable
         c.ExecuteNonQuery();
     }
 
+    /// <summary>Replaces the text of an active alert whose facts changed (same episode, new wording).</summary>
+    public void UpdateAlertMessage(long id, string message)
+    {
+        using var c = _db.CreateCommand();
+        c.CommandText = "UPDATE alerts SET message = $m WHERE id = $id";
+        c.Parameters.AddWithValue("$m", message);
+        c.Parameters.AddWithValue("$id", id);
+        c.ExecuteNonQuery();
+    }
+
     public void Dispose() => _db.Dispose();
 }
