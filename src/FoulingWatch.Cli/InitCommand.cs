@@ -63,6 +63,9 @@ public static class InitCommand
         sb.AppendLine("// Starter configuration written by 'foulingwatch init'. Lines marked CHECK are guesses: confirm or correct them,");
         sb.AppendLine("// then run 'foulingwatch check --config <this file>'. Every number carries its unit.");
         sb.AppendLine("{");
+        // The schema shipped with the tool: editors complete and check the keys while the file is edited.
+        var schema = Path.Combine(AppContext.BaseDirectory, "schema", "plant.schema.json");
+        if (File.Exists(schema)) sb.AppendLine($"  \"$schema\": {Json(new Uri(schema).AbsoluteUri)},");
         sb.AppendLine("  \"site\": { \"name\": \"my site\", \"timeZone\": \"UTC\" },   // CHECK: IANA zone of the historian's local times");
         sb.AppendLine("  \"data\": {");
         sb.AppendLine("    \"interval\": \"10 min\",");

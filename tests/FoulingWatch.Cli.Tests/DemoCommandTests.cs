@@ -92,6 +92,10 @@ public class InitCommandTests
         Assert.Contains("{ \"tag\": \"TI-2012\", \"unit\": \"degC\" }", text);
         Assert.DoesNotContain("unit guessed from values", text.Split('\n').First(l => l.Contains("\"TI-2012\"")));
         Assert.Contains("\"format\": \"dd.MM.yyyy HH:mm\"", text);
+        // it points editors at the schema shipped beside the tool
+        var schema = System.Text.RegularExpressions.Regex.Match(text, "\"\\$schema\": \"(file:[^\"]+)\"");
+        Assert.True(schema.Success, "no $schema line");
+        Assert.True(File.Exists(new Uri(schema.Groups[1].Value).LocalPath), schema.Groups[1].Value);
         Assert.Equal(0, SamplePlantCopy.Run("check", "--config", config).Code);
     }
 

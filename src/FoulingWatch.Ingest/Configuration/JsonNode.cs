@@ -29,21 +29,31 @@ internal sealed class JsonNode
     public void Error(string key, string message) => _errors.Add(new ConfigurationError(Child(key), message));
     public void ErrorHere(string message) => _errors.Add(new ConfigurationError(Path.Length == 0 ? "(top level)" : Path, message));
 
+    /// <summary>When set (the schema's tests), every key the reader asks about is reported with its object's path,
+    /// array indexes written as [] ("exchangers[].hot.flow").</summary>
+    [ThreadStatic] internal static Action<string, string>? KeyObserver;
+
+    private void Know(string key)
+    {
+        _known.Add(key);
+        KeyObserver?.Invoke(System.Text.RegularExpressions.Regex.Replace(Path, "\\[\\d+\\]", "[]"), key);
+    }
+
     /// <summary>Declares keys this object may have without reading them here.</summary>
     public void Allow(params string[] keys)
     {
-        foreach (var k in keys) _known.Add(k);
+        foreach (var k in keys) Know(k);
     }
 
     public bool Has(string key)
     {
-        _known.Add(key);
+        Know(key);
         return _element.ValueKind == JsonValueKind.Object && _element.TryGetProperty(key, out var v) && v.ValueKind != JsonValueKind.Null;
     }
 
     private JsonElement? Get(string key, bool required)
     {
-        _known.Add(key);
+        Know(key);
         if (_element.ValueKind == JsonValueKind.Object && _element.TryGetProperty(key, out var v) && v.ValueKind != JsonValueKind.Null) return v;
         if (required) Error(key, "is missing; it is required here.");
         return null;

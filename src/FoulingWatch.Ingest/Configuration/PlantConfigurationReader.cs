@@ -44,6 +44,7 @@ public static class PlantConfigurationReader
                 throw new ConfigurationException(file, [new ConfigurationError("(top level)", "must be a JSON object { … }.")]);
             var baseDir = System.IO.Path.GetDirectoryName(System.IO.Path.GetFullPath(file)) ?? ".";
 
+            root.Allow("$schema"); // the editor's pointer to schema/plant.schema.json
             var site = ReadSite(root.Object("site", required: true));
             var economics = ReadEconomics(root.Object("economics"), null) ?? new EconomicsSettings("EUR", null, null, null, null, null, null);
             var data = ReadData(root.Object("data", required: true), baseDir, site, requireFiles);
@@ -74,6 +75,18 @@ public static class PlantConfigurationReader
             if (errors.Count > 0) throw new ConfigurationException(file, errors);
             return new PlantConfiguration(System.IO.Path.GetFullPath(file), site!, data!, economics, windows, exchangers, watch);
         }
+    }
+
+    /// <summary>The keys the reader asks about while loading <paramref name="file"/> — (object path with [] for array items,
+    /// key) — whether or not it is valid; the schema's tests compare them with the schema.</summary>
+    public static HashSet<(string Object, string Key)> KeysRead(string file)
+    {
+        var keys = new HashSet<(string Object, string Key)>();
+        JsonNode.KeyObserver = (o, k) => keys.Add((o, k));
+        try { Load(file, requireFiles: false); }
+        catch (ConfigurationException) { }
+        finally { JsonNode.KeyObserver = null; }
+        return keys;
     }
 
     private static SiteSettings? ReadSite(JsonNode? n)
