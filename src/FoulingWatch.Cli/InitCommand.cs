@@ -53,11 +53,19 @@ public static class InitCommand
         }
 
         var streams = new List<(TagInfo Flow, TagInfo A, TagInfo B)>();
+        // A flow's two temperatures: the two tags whose names place them on the same stream (same parts once the
+        // instrument code is taken out), else the two temperatures after it in the header, before the next flow.
+        var placed = new HashSet<TagInfo>();
         for (var i = 0; i < tags.Count; i++)
         {
             if (tags[i].Role != Role.Flow) continue;
-            var temps = tags.Skip(i + 1).TakeWhile(t => t.Role != Role.Flow).Where(t => t.Role == Role.Temperature).Take(2).ToList();
-            if (temps.Count == 2) streams.Add((tags[i], temps[0], temps[1]));
+            var key = StreamKey(tags[i].Tag);
+            var sameStream = tags.Where(t => t.Role == Role.Temperature && !placed.Contains(t) && StreamKey(t.Tag) == key).ToList();
+            var temps = sameStream.Count == 2 ? sameStream
+                : tags.Skip(i + 1).TakeWhile(t => t.Role != Role.Flow).Where(t => t.Role == Role.Temperature && !placed.Contains(t)).Take(2).ToList();
+            if (temps.Count != 2) continue;
+            streams.Add((tags[i], temps[0], temps[1]));
+            placed.UnionWith([tags[i], temps[0], temps[1]]);
         }
         var sb = new StringBuilder();
         sb.AppendLine("// Starter configuration written by 'foulingwatch init'. Lines marked CHECK are guesses: confirm or correct them,");
@@ -124,14 +132,43 @@ public static class InitCommand
 
     private static string Json(string s) => System.Text.Json.JsonSerializer.Serialize(s);
 
+    private static readonly string[] Suffixes = ["PV", "SP", "OP", "MV", "CV", "VAL", "AVG", "VALUE"];
+
+    /// <summary>The parts of a tag name: split at _ : . - / and spaces, upper case.</summary>
+    private static string[] Tokens(string tag) =>
+        System.Text.RegularExpressions.Regex.Split(tag.Trim().ToUpperInvariant(), "[_:.\\-/ ]+").Where(t => t.Length > 0).ToArray();
+
+    /// <summary>The role of one part of a tag name, by the words flow/temp/press or an instrument code whose first letter
+    /// is the measured variable and whose next letters are functions (ISA-5.1 style: FI, FT, FIC, TI, TT, TIN, PI, PDT…).</summary>
+    private static Role? TokenRole(string t)
+    {
+        if (Suffixes.Contains(t) || t.All(char.IsDigit)) return null;
+        if (t.Contains("FLOW")) return Role.Flow;
+        if (t.Contains("TEMP")) return Role.Temperature;
+        if (t.Contains("PRESS")) return Role.Pressure;
+        if (System.Text.RegularExpressions.Regex.IsMatch(t, "^F[ICTREQYA]{1,3}\\d*$")) return Role.Flow;
+        if (System.Text.RegularExpressions.Regex.IsMatch(t, "^T(IN|OUT|[ICTREQA]{1,3})\\d*$")) return Role.Temperature;
+        if (System.Text.RegularExpressions.Regex.IsMatch(t, "^P[DICTRE]{1,3}\\d*$")) return Role.Pressure;
+        return null;
+    }
+
+    /// <summary>Flow, temperature or pressure from the tag's name: the first part that names one (so "E101_FI_105",
+    /// "U7:FI7301.PV" and "E-102.TUBE.TIN" are read by their instrument part), else the name's first letter.</summary>
     private static Role RoleOf(string tag)
     {
+        foreach (var token in Tokens(tag))
+            if (TokenRole(token) is { } r) return r;
         var t = tag.Trim().ToUpperInvariant();
-        if (t.Contains("FLOW") || t.StartsWith('F')) return Role.Flow;
-        if (t.Contains("TEMP") || t.StartsWith('T')) return Role.Temperature;
-        if (t.Contains("PRESS") || t.StartsWith('P')) return Role.Pressure;
+        if (t.StartsWith('F')) return Role.Flow;
+        if (t.StartsWith('T')) return Role.Temperature;
+        if (t.StartsWith('P')) return Role.Pressure;
         return Role.Other;
     }
+
+    /// <summary>What a tag says about where it sits: its parts less the instrument code, loop numbers and value suffixes
+    /// ("E-102.TUBE.TIN" → "E-102.TUBE" style key "E.102.TUBE").</summary>
+    private static string StreamKey(string tag) =>
+        string.Join('.', Tokens(tag).Where(t => TokenRole(t) is null && !Suffixes.Contains(t) && !t.All(char.IsDigit)));
 
     private static (string Unit, bool Guessed) UnitOf(Role role, string stated, List<double> values)
     {

@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Text.Json;
 
 namespace FoulingWatch.Cli.Tests;
@@ -97,6 +98,42 @@ public class InitCommandTests
         Assert.True(schema.Success, "no $schema line");
         Assert.True(File.Exists(new Uri(schema.Groups[1].Value).LocalPath), schema.Groups[1].Value);
         Assert.Equal(0, SamplePlantCopy.Run("check", "--config", config).Code);
+    }
+
+    // Tag styles from other sites (invented tags): the instrument code is found inside the name, and a flow is paired
+    // with the temperatures of its own stream even when the temperatures come first in the header.
+    [Theory]
+    [InlineData("E101_FI_105", "E101_TI_106", "E101_TI_107", "E101_FI_108", "E101_TI_109", "E101_TI_110")]
+    [InlineData("U7:FI7301.PV", "U7:TI7302.PV", "U7:TI7303.PV", "U7:FI7304.PV", "U7:TI7305.PV", "U7:TI7306.PV")]
+    [InlineData("E-102.TUBE.TIN", "E-102.TUBE.TOUT", "E-102.TUBE.FLOW", "E-102.SHELL.TIN", "E-102.SHELL.TOUT", "E-102.SHELL.FLOW")]
+    public void Init_groups_tags_of_other_naming_styles(string a, string b, string c, string d, string e, string f)
+    {
+        using var plant = new SamplePlantCopy();
+        // hot stream: flow ≈ 100, 150 → 110 °C; cold stream: flow ≈ 120, 30 → 60 °C (columns a–c one stream, d–f the other)
+        var header = new[] { a, b, c, d, e, f };
+        var flowFirst = !c.EndsWith("FLOW");
+        var csv = new System.Text.StringBuilder("Timestamp," + string.Join(",", header) + "\n");
+        for (var m = 0; m < 300; m++)
+        {
+            var t = new DateTime(2026, 3, 1, 0, 0, 0, DateTimeKind.Utc).AddMinutes(10 * m).ToString("yyyy-MM-ddTHH:mm:ssZ", CultureInfo.InvariantCulture);
+            var w = 0.1 * Math.Sin(m / 7.0);
+            string[] hot = flowFirst ? [$"{100 + w:0.00}", $"{150 + w:0.00}", $"{110 + w:0.00}"] : [$"{150 + w:0.00}", $"{110 + w:0.00}", $"{100 + w:0.00}"];
+            string[] cold = flowFirst ? [$"{120 + w:0.00}", $"{30 + w:0.00}", $"{60 + w:0.00}"] : [$"{30 + w:0.00}", $"{60 + w:0.00}", $"{120 + w:0.00}"];
+            csv.Append(t).Append(',').Append(string.Join(",", hot.Concat(cold))).Append('\n');
+        }
+        var export = plant.Out("styles.csv");
+        File.WriteAllText(export, csv.ToString());
+        var config = plant.Out("styles.json");
+        var (code, output, _) = SamplePlantCopy.Run("init", "--data", export, "--out", config);
+        Assert.Equal(0, code);
+        Assert.Contains("1 candidate exchanger(s) from 6 tags; 0 tag(s) left", output);
+        var text = File.ReadAllText(config);
+        var hotFlow = flowFirst ? a : c;
+        var coldFlow = flowFirst ? d : f;
+        var hotBlock = text[text.IndexOf("\"hot\"", StringComparison.Ordinal)..text.IndexOf("\"cold\"", StringComparison.Ordinal)];
+        Assert.Contains($"\"flow\": {{ \"tag\": \"{hotFlow}\"", hotBlock);
+        Assert.Contains($"\"tag\": \"{(flowFirst ? b : a)}\"", hotBlock);   // the 150 °C inlet
+        Assert.Contains($"\"flow\": {{ \"tag\": \"{coldFlow}\"", text[text.IndexOf("\"cold\"", StringComparison.Ordinal)..]);
     }
 
     [Fact]
