@@ -25,6 +25,18 @@ public sealed class IapwsWater : IFluidModel
     public double SpecificHeat(Temperature temperature, Pressure pressure) => StateAt(temperature, pressure).SpecificHeat;
     public double? Density(Temperature temperature, Pressure pressure) => 1.0 / StateAt(temperature, pressure).SpecificVolume;
 
+    /// <summary>Dynamic viscosity in Pa·s (IAPWS R12-08 on the IF97 density).</summary>
+    public double Viscosity(Temperature temperature, Pressure pressure) =>
+        WaterTransport.Viscosity(temperature.Kelvin, Density(temperature, pressure)!.Value);
+
+    /// <summary>Thermal conductivity in W/(m·K) (IAPWS R15-11 on the IF97 density).</summary>
+    public double ThermalConductivity(Temperature temperature, Pressure pressure) =>
+        WaterTransport.ThermalConductivity(temperature.Kelvin, Density(temperature, pressure)!.Value);
+
+    /// <summary>Prandtl number μ·cp/λ.</summary>
+    public double Prandtl(Temperature temperature, Pressure pressure) =>
+        Viscosity(temperature, pressure) * SpecificHeat(temperature, pressure) / ThermalConductivity(temperature, pressure);
+
     public string? WhyNotEvaluable(Temperature from, Temperature to, Pressure pressure)
     {
         if (!Validity.Contains(from) || !Validity.Contains(to))
