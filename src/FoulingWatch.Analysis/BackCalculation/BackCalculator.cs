@@ -117,7 +117,8 @@ public static class BackCalculator
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
             if (e.Status != SampleStatus.Ok) { systematic[k] = double.NaN; return; }
             var instruments = evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean);
-            var reference = clean.InverseSigma(e.TubeFlow, e.ShellFlow);
+            var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(used);
+            var reference = clean.InverseSigma(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
             systematic[k] = Math.Sqrt(instruments * instruments + reference * reference);
         });
         var random = RandomPart.PerSample(data, evaluations);
@@ -190,7 +191,10 @@ public static class BackCalculator
         var shellPhase = x.Shell.Fluid.IsPhaseChange;
         if (x.Clean is DatasheetCleanReference d)
         {
-            var model = new DatasheetCleanU(d, tubePhase, shellPhase);
+            FilmPropertyScaling? Scaling(StreamConfiguration side, double? bulk, double n) =>
+                bulk is { } t && side.Fluid is Core.FluidModels.IapwsWater water ? new FilmPropertyScaling(water, side.PressurePascals, t, n) : null;
+            var model = new DatasheetCleanU(d, tubePhase, shellPhase, Scaling(x.Tube, d.TubeBulkTemperature, d.TubeExponent),
+                Scaling(x.Shell, d.ShellBulkTemperature, d.ShellExponent));
             return (model, new CleanReferenceReport("datasheet", model.Description, null, 0, null, null, null));
         }
         var b = (BaselineCleanReference)x.Clean;

@@ -1,3 +1,5 @@
+using FoulingWatch.Core.FluidModels;
+using FoulingWatch.Core.Quantities;
 using FoulingWatch.Core.Uncertainty;
 using FoulingWatch.Ingest.Configuration;
 
@@ -6,11 +8,52 @@ namespace FoulingWatch.Analysis.BackCalculation;
 /// <summary>Clean overall U (W/(m²·K)) of an exchanger at given tube- and shell-side mass flows (kg/s).</summary>
 public interface ICleanUModel
 {
-    double CleanU(double tubeFlow, double shellFlow);
+    /// <summary>Clean U at these flows and, where the model scales films with fluid properties, these bulk temperatures
+    /// (K; NaN: at the design temperatures).</summary>
+    double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN);
     string Description { get; }
 
     /// <summary>Standard uncertainty of 1/U_clean (m²·K/W) at these flows: a systematic error, whole for the cycle.</summary>
-    double InverseSigma(double tubeFlow, double shellFlow);
+    double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN);
+}
+
+/// <summary>How a forced-convection film coefficient moves with the fluid's properties at a fixed mass flow.</summary>
+/// <remarks>
+/// From Nu = C·Reⁿ·Pr^0.4 (Dittus–Boelter, heating; the same exponent form as the flow scaling):
+/// h = (k/D)·C·(ṁD/(Aμ))ⁿ·(cₚμ/k)^0.4, so at a given flow 1/h ∝ μ^(n−0.4)·cₚ^(−0.4)·k^(−0.6). The factor returned is
+/// that product at the bulk temperature over its value at the design bulk temperature (analytic consequence of the
+/// correlation; exponent 0.4 for heating the fluid, from memory 0.3 for cooling, a difference under 1 % of 1/h over a
+/// 10 K swing, left out).
+/// </remarks>
+public sealed class FilmPropertyScaling
+{
+    private readonly IapwsWater _water;
+    private readonly double _pressure, _exponent, _design;
+
+    public FilmPropertyScaling(IapwsWater water, double pressure, double designBulk, double flowExponent)
+    {
+        (_water, _pressure, _exponent, DesignBulk) = (water, pressure, flowExponent, designBulk);
+        _design = Group(designBulk);
+    }
+
+    public double DesignBulk { get; }
+
+    private double Group(double bulk)
+    {
+        var t = Temperature.FromKelvin(bulk);
+        var p = new Pressure(_pressure);
+        return Math.Pow(_water.Viscosity(t, p), _exponent - 0.4) * Math.Pow(_water.SpecificHeat(t, p), -0.4)
+               * Math.Pow(_water.ThermalConductivity(t, p), -0.6);
+    }
+
+    /// <summary>(1/h at the bulk temperature) / (1/h at the design bulk temperature), same mass flow; 1 when the bulk
+    /// temperature is not known or outside the property models.</summary>
+    public double InverseFactor(double bulk)
+    {
+        if (!double.IsFinite(bulk)) return 1;
+        try { return Group(bulk) / _design; }
+        catch (PropertyRangeException) { return 1; }
+    }
 }
 
 /// <summary>
@@ -28,8 +71,12 @@ public sealed class DatasheetCleanU : ICleanUModel
     private readonly DatasheetCleanReference _r;
     private readonly double _rTube, _rShell, _nTube, _nShell;
 
-    public DatasheetCleanU(DatasheetCleanReference reference, bool tubePhaseChange, bool shellPhaseChange)
+    private readonly FilmPropertyScaling? _tubeScaling, _shellScaling;
+
+    public DatasheetCleanU(DatasheetCleanReference reference, bool tubePhaseChange, bool shellPhaseChange,
+        FilmPropertyScaling? tubeScaling = null, FilmPropertyScaling? shellScaling = null)
     {
+        (_tubeScaling, _shellScaling) = (tubeScaling, shellScaling);
         _r = reference;
         var film = 1 / reference.CleanU - reference.WallResistance;
         _rTube = reference.TubeShare * film;
@@ -38,7 +85,9 @@ public sealed class DatasheetCleanU : ICleanUModel
         _nShell = shellPhaseChange ? 0 : reference.ShellExponent;
         Description = string.Create(System.Globalization.CultureInfo.InvariantCulture,
             $"datasheet: U = {reference.CleanU:0.#} W/m2K ± {reference.RelativeUncertainty:P0} at design flows, tube share " +
-            $"{reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W");
+            $"{reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W") +
+            (tubeScaling is null ? "" : FormattableString.Invariant($"; tube film scaled with water properties from {tubeScaling.DesignBulk - 273.15:0.#} °C")) +
+            (shellScaling is null ? "" : FormattableString.Invariant($"; shell film scaled with water properties from {shellScaling.DesignBulk - 273.15:0.#} °C"));
     }
 
     public string Description { get; }
@@ -50,22 +99,30 @@ public sealed class DatasheetCleanU : ICleanUModel
 
     /// <summary>u(1/U_c) by first-order propagation (GUM 5.1.2) of the datasheet U (its relative uncertainty), the tube
     /// share and the two flow exponents (a phase-change side keeps n = 0).</summary>
-    public double InverseSigma(double tubeFlow, double shellFlow)
+    public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
     {
         double[] x = [_r.CleanU, _r.TubeShare, _nTube, _nShell];
         double[] u = [_r.RelativeUncertainty * _r.CleanU, ShareUncertainty, _nTube > 0 ? ExponentUncertainty : 0, _nShell > 0 ? ExponentUncertainty : 0];
-        return FirstOrderPropagation.StandardUncertainty(v => Inverse(v[0], v[1], v[2], v[3], tubeFlow, shellFlow), x, u);
+        var (ft, fs) = Factors(tubeBulk, shellBulk);
+        return FirstOrderPropagation.StandardUncertainty(v => Inverse(v[0], v[1], v[2], v[3], tubeFlow, shellFlow, ft, fs), x, u);
     }
 
-    private double Inverse(double u, double share, double nTube, double nShell, double tubeFlow, double shellFlow)
+    private (double Tube, double Shell) Factors(double tubeBulk, double shellBulk) =>
+        (_tubeScaling?.InverseFactor(tubeBulk) ?? 1, _shellScaling?.InverseFactor(shellBulk) ?? 1);
+
+    private double Inverse(double u, double share, double nTube, double nShell, double tubeFlow, double shellFlow, double ft, double fs)
     {
         var film = 1 / u - _r.WallResistance;
-        return share * film * Math.Pow(_r.DesignTubeFlow / tubeFlow, nTube)
-               + (1 - share) * film * Math.Pow(_r.DesignShellFlow / shellFlow, nShell) + _r.WallResistance;
+        return share * film * Math.Pow(_r.DesignTubeFlow / tubeFlow, nTube) * ft
+               + (1 - share) * film * Math.Pow(_r.DesignShellFlow / shellFlow, nShell) * fs + _r.WallResistance;
     }
 
-    public double CleanU(double tubeFlow, double shellFlow) =>
-        1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) + _r.WallResistance);
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
+    {
+        var (ft, fs) = Factors(tubeBulk, shellBulk);
+        return 1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) * ft
+                    + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) * fs + _r.WallResistance);
+    }
 }
 
 /// <summary>Clean U from a Wilson-plot fit: 1/U = a + b·ṁ_t^−n_t + c·ṁ_s^−n_s (b or c may be zero when a side did not vary).</summary>
@@ -78,11 +135,11 @@ public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube,
     public double C { get; } = c;
     public string Description { get; } = description;
 
-    public double CleanU(double tubeFlow, double shellFlow) =>
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
         1 / (A + B * Math.Pow(tubeFlow, -nTube) + C * Math.Pow(shellFlow, -nShell));
 
     /// <summary>u(1/U_c) = √(gᵀ·Cov·g) with g = (1, ṁ_t^−n_t, ṁ_s^−n_s): the fit's parameter covariance at these flows.</summary>
-    public double InverseSigma(double tubeFlow, double shellFlow)
+    public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
     {
         if (covariance is null) return 0;
         Span<double> g = [1, Math.Pow(tubeFlow, -nTube), Math.Pow(shellFlow, -nShell)];

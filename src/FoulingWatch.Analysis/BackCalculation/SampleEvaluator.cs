@@ -173,11 +173,20 @@ public sealed class SampleEvaluator
         return (thi, tho, tci, tco);
     }
 
+    /// <summary>Bulk (mean of inlet and outlet) temperatures of the tube and shell sides, K.</summary>
+    public (double Tube, double Shell) BulkTemperatures(double[] m)
+    {
+        var hot = 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]);
+        var cold = 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]);
+        return _x.Hot.Side == ExchangerSide.Tube ? (hot, cold) : (cold, hot);
+    }
+
     /// <summary>Adds clean U, Rf = 1/U − 1/U_clean, cleanliness and lost duty (ε-NTU at U_clean and at U, today's inlets and capacity rates).</summary>
     public SampleEvaluation Complete(SampleEvaluation e, ICleanUModel clean, double[] used)
     {
         if (!(e.UActual > 0)) return e;
-        var uc = clean.CleanU(e.TubeFlow, e.ShellFlow);
+        var (tubeBulk, shellBulk) = BulkTemperatures(used);
+        var uc = clean.CleanU(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
         var terminals = TerminalTemperatures(used);
         var thi = T(terminals.HotIn);
         var tci = T(terminals.ColdIn);
@@ -223,7 +232,8 @@ public sealed class SampleEvaluator
         if (!(u > 0)) return double.NaN;
         var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
-        return 1 / u - 1 / clean.CleanU(tube, shell);
+        var (tubeBulk, shellBulk) = BulkTemperatures(m);
+        return 1 / u - 1 / clean.CleanU(tube, shell, tubeBulk, shellBulk);
     }
 
     /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the

@@ -109,9 +109,12 @@ public abstract record CleanReference(double TubeExponent, double ShellExponent)
 /// <param name="TubeShare">Fraction of the clean film resistance (1/U − wall) on the tube side, 0–1.</param>
 /// <param name="WallResistance">Wall resistance referred to the area, m²·K/W.</param>
 /// <param name="RelativeUncertainty">Standard uncertainty of the datasheet clean U as a fraction of it (default 5 %).</param>
+/// <param name="TubeBulkTemperature">Design bulk temperature of the tube side (K): when given, the tube film is scaled with
+/// the fluid's properties at today's bulk temperature as well as with flow; null: flow only.</param>
 public sealed record DatasheetCleanReference(
     double CleanU, double DesignTubeFlow, double DesignShellFlow, double TubeShare, double WallResistance,
-    double TubeExponent, double ShellExponent, double RelativeUncertainty = DatasheetCleanReference.DefaultUncertainty)
+    double TubeExponent, double ShellExponent, double RelativeUncertainty = DatasheetCleanReference.DefaultUncertainty,
+    double? TubeBulkTemperature = null, double? ShellBulkTemperature = null)
     : CleanReference(TubeExponent, ShellExponent)
 {
     /// <summary>Default standard uncertainty of a datasheet clean U: 5 % (from memory: film-coefficient correlations

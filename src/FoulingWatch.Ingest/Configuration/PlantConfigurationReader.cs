@@ -483,6 +483,20 @@ public static class PlantConfigurationReader
         return re is null || pr is null || energy is null ? null : new ThresholdSettings(re.Value, pr.Value, energy.Value, rise);
     }
 
+    /// <summary>A side's design bulk temperature, for scaling its film with the fluid's properties: only fluids with
+    /// viscosity and thermal conductivity (water) can be scaled.</summary>
+    private static double? BulkTemperature(JsonNode n, string key, StreamConfiguration? side)
+    {
+        if (!n.Has(key)) return null;
+        var t = n.Quantity(key, Dimension.Temperature, minSi: 253.15, maxSi: 573.15);
+        if (t is not null && side is not null && side.Fluid is not Core.FluidModels.IapwsWater)
+        {
+            n.Error(key, $"scales the film with the fluid's viscosity and conductivity, which only the \"water\" model has so far ({side.Fluid.Description} has not); leave it out for this side.");
+            return null;
+        }
+        return t;
+    }
+
     private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold)
     {
         if (n is null) return null;
@@ -502,9 +516,11 @@ public static class PlantConfigurationReader
                 if (tube?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the tube-side stream ({(tube == hot ? "hot" : "cold")}.designFlow).");
                 if (shell?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the shell-side stream ({(shell == hot ? "hot" : "cold")}.designFlow).");
                 if (u is not null && wall >= 1 / u.Value) n.Error("wallResistance", "is as large as the whole clean resistance 1/U; check the value.");
+                var tubeBulk = BulkTemperature(n, "tubeBulkTemperature", tube);
+                var shellBulk = BulkTemperature(n, "shellBulkTemperature", shell);
                 if (u is not null && tube?.DesignFlow is not null && shell?.DesignFlow is not null && wall < 1 / u.Value)
                     result = new DatasheetCleanReference(u.Value, tube.DesignFlow.Value, shell.DesignFlow.Value, share, wall, tubeN, shellN,
-                        uncertainty);
+                        uncertainty, tubeBulk, shellBulk);
                 break;
             case "baseline":
                 var days = n.Quantity("duration", Dimension.Duration, minSi: 3600) ?? 14 * 86400.0;

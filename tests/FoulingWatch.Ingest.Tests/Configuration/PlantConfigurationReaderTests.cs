@@ -59,6 +59,16 @@ public class PlantConfigurationReaderTests
         Assert.Equal("250 has no unit; every number carries its unit, e.g. \"250 m2\".", e.Message);
     }
 
+    // Property scaling needs the fluid's viscosity and conductivity: asked of a petroleum side, it is refused with the key.
+    [Fact]
+    public void A_bulk_temperature_for_a_fluid_without_transport_properties_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger().Replace("\"u\": \"450 W/m2K\"", "\"u\": \"450 W/m2K\", \"tubeBulkTemperature\": \"120 degC\""));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].clean.tubeBulkTemperature", e.Path);
+        Assert.StartsWith("scales the film with the fluid's viscosity and conductivity, which only the \"water\" model has so far", e.Message);
+    }
+
     [Fact]
     public void All_problems_are_reported_at_once()
     {
