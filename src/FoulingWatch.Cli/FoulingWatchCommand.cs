@@ -68,8 +68,11 @@ public static class FoulingWatchCommand
         watch.Options.Add(storeOption);
         watch.Options.Add(watchOut);
         watch.Options.Add(pollOption);
+        var logLevelOption = new Option<string?>("--log-level") { Description = "Least severe log events written (overrides watch.logLevel)." };
+        logLevelOption.AcceptOnlyFromAmong(WatchSettings.LogLevels);
+        watch.Options.Add(logLevelOption);
         watch.SetAction(p => Guard(error, () => Watch.WatchCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(dropOption)?.FullName, p.GetValue(storeOption)?.FullName,
-            p.GetValue(watchOut)?.FullName, p.GetValue(pollOption) is { } s ? TimeSpan.FromSeconds(s) : null, error)));
+            p.GetValue(watchOut)?.FullName, p.GetValue(pollOption) is { } s ? TimeSpan.FromSeconds(s) : null, error, p.GetValue(logLevelOption))));
         root.Subcommands.Add(watch);
 
         var status = new Command("status", "Show what the watch service's store holds and its active alerts.");

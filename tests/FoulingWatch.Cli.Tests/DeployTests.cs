@@ -32,6 +32,9 @@ public class DeployTests
         Assert.Equal("/var/lib/foulingwatch/results", s.Out);
         Assert.Equal("/var/log/foulingwatch", s.Log);
         Assert.Equal(TimeSpan.FromSeconds(30), s.PollInterval);
+        Assert.Equal("information", s.LogLevel);
+        // the command line wins over the environment
+        Assert.Equal("warning", WatchCommand.Settings(config, environment, null, null, null, null, "warning").LogLevel);
     }
 
     // The unit starts the installed tool's watch command with the environment file above, and its writable paths cover

@@ -33,7 +33,8 @@ public sealed class WatchService(PlantConfiguration config, WatchSettings settin
 public static class WatchCommand
 {
     /// <summary>Watch settings from the plant file, overridden by environment variables (FOULINGWATCH_WATCH__DROPFOLDER, __STORE, __OUT, __LOG, __POLLSECONDS) and then by command-line options.</summary>
-    public static WatchSettings Settings(PlantConfiguration config, IConfiguration environment, string? drop, string? storePath, string? outDir, TimeSpan? poll)
+    public static WatchSettings Settings(PlantConfiguration config, IConfiguration environment, string? drop, string? storePath, string? outDir, TimeSpan? poll,
+        string? logLevel = null)
     {
         var w = config.Watch;
         var section = environment.GetSection("WATCH");
@@ -46,18 +47,21 @@ public static class WatchCommand
             Out = Pick(outDir, "OUT", w.Out),
             Log = Pick(null, "LOG", w.Log),
             PollInterval = poll ?? (double.TryParse(section["POLLSECONDS"], System.Globalization.CultureInfo.InvariantCulture, out var s) ? TimeSpan.FromSeconds(s) : w.PollInterval),
+            LogLevel = logLevel ?? (section["LOGLEVEL"] is { Length: > 0 } fromEnvironment && WatchSettings.LogLevels.Contains(fromEnvironment.ToLowerInvariant())
+                ? fromEnvironment.ToLowerInvariant() : w.LogLevel),
         };
     }
 
-    public static int Run(string configPath, string? drop, string? storePath, string? outDir, TimeSpan? poll, TextWriter error)
+    public static int Run(string configPath, string? drop, string? storePath, string? outDir, TimeSpan? poll, TextWriter error,
+        string? logLevel = null)
     {
         var config = PlantConfigurationReader.Load(configPath, requireFiles: false);
         var builder = Host.CreateApplicationBuilder();
         builder.Configuration.AddEnvironmentVariables("FOULINGWATCH_");
-        var settings = Settings(config, builder.Configuration, drop, storePath, outDir, poll);
+        var settings = Settings(config, builder.Configuration, drop, storePath, outDir, poll, logLevel);
         Directory.CreateDirectory(settings.Log);
         Log.Logger = new LoggerConfiguration()
-            .MinimumLevel.Information()
+            .MinimumLevel.Is(Enum.Parse<Serilog.Events.LogEventLevel>(settings.LogLevel, ignoreCase: true))
             .Enrich.FromLogContext()
             .WriteTo.Console(standardErrorFromLevel: Serilog.Events.LogEventLevel.Verbose)
             .WriteTo.File(Path.Combine(settings.Log, "foulingwatch-.log"), rollingInterval: RollingInterval.Day, retainedFileCountLimit: 31)

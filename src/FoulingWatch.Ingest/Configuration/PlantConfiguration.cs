@@ -17,8 +17,12 @@ public sealed record PlantConfiguration(
 /// <summary>Settings of the monitoring service (<c>foulingwatch watch</c>); paths absolute.</summary>
 /// <param name="AlertHorizon">A limit forecast inside this horizon raises an alert.</param>
 /// <param name="StaleAfter">No new data for this long raises a "data stopped" alert.</param>
+/// <param name="LogLevel">Least severe log events written: verbose, debug, information, warning, error or fatal.</param>
 public sealed record WatchSettings(string DropFolder, string Store, string Out, string Log, TimeSpan PollInterval, TimeSpan SettleTime,
-    TimeSpan AlertHorizon, TimeSpan StaleAfter);
+    TimeSpan AlertHorizon, TimeSpan StaleAfter, string LogLevel = "information")
+{
+    public static readonly string[] LogLevels = ["verbose", "debug", "information", "warning", "error", "fatal"];
+}
 
 /// <summary>Site name, its time zone (for historian local times) and the atmosphere used for gauge pressures in Pa.</summary>
 public sealed record SiteSettings(string Name, TimeZoneInfo TimeZone, double AtmospherePascals);

@@ -112,6 +112,13 @@ public static class PlantConfigurationReader
             TimeSpan.FromSeconds(n?.Quantity("settleTime", Dimension.Duration, minSi: 0) ?? 10),
             TimeSpan.FromSeconds(n?.Quantity("alertHorizon", Dimension.Duration, minSi: 0) ?? 30 * 86400.0),
             TimeSpan.FromSeconds(n?.Quantity("staleAfter", Dimension.Duration, minSi: 60) ?? 86400.0));
+        var level = n?.String("logLevel")?.ToLowerInvariant();
+        if (level is not null && !WatchSettings.LogLevels.Contains(level))
+        {
+            n!.Error("logLevel", $"'{level}' is not a log level; use {string.Join(", ", WatchSettings.LogLevels.Select(l => $"\"{l}\""))}.");
+            level = null;
+        }
+        if (level is not null) w = w with { LogLevel = level };
         n?.Done();
         return w;
     }

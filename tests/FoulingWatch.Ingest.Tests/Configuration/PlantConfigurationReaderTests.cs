@@ -70,6 +70,17 @@ public class PlantConfigurationReaderTests
     }
 
     [Fact]
+    public void A_log_level_that_is_not_one_is_refused_with_the_levels()
+    {
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }");
+        File.WriteAllText(plant.ConfigPath, File.ReadAllText(plant.ConfigPath)
+            .Replace("\"site\": {", "\"watch\": { \"logLevel\": \"chatty\" }, \"site\": {"));
+        var e = Assert.Single(Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath)).Errors);
+        Assert.Equal("watch.logLevel", e.Path);
+        Assert.Equal("'chatty' is not a log level; use \"verbose\", \"debug\", \"information\", \"warning\", \"error\", \"fatal\".", e.Message);
+    }
+
+    [Fact]
     public void All_problems_are_reported_at_once()
     {
         var bad = TestPlant.Interchanger(flowUnit: "kg/fortnight")
