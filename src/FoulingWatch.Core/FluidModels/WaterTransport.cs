@@ -49,9 +49,7 @@ public static class WaterTransport
         Check(temperature, density);
         var t = temperature / TStar;
         var d = density / RhoStar;
-        var sum0 = 0.0;
-        for (var i = 0; i < H0.Length; i++) sum0 += H0[i] / Math.Pow(t, i);
-        var mu0 = 100 * Math.Sqrt(t) / sum0;
+        var mu0 = 100 * Math.Sqrt(t) / PowerSeries(H0, 1 / t);
         return 1e-6 * mu0 * Math.Exp(d * Series(H1, t, d));
     }
 
@@ -61,10 +59,16 @@ public static class WaterTransport
         Check(temperature, density);
         var t = temperature / TStar;
         var d = density / RhoStar;
-        var sum0 = 0.0;
-        for (var k = 0; k < L0.Length; k++) sum0 += L0[k] / Math.Pow(t, k);
-        var lambda0 = Math.Sqrt(t) / sum0;
+        var lambda0 = Math.Sqrt(t) / PowerSeries(L0, 1 / t);
         return 1e-3 * lambda0 * Math.Exp(d * Series(L1, t, d));
+    }
+
+    /// <summary>Σᵢ cᵢ xⁱ (the dilute-gas terms with x = 1/T̄).</summary>
+    private static double PowerSeries(double[] c, double x)
+    {
+        double sum = 0, xi = 1;
+        foreach (var ci in c) { sum += ci * xi; xi *= x; }
+        return sum;
     }
 
     /// <summary>Σᵢ Σⱼ cᵢⱼ (1/T̄ − 1)ⁱ (ρ̄ − 1)ʲ.</summary>

@@ -9,18 +9,11 @@ namespace FoulingWatch.Ingest.Tests.Configuration;
 /// rewritten with FOULINGWATCH_REGENERATE_DOCS=1; otherwise this test fails when it no longer matches the schema.</summary>
 public class ConfigurationReferenceTests
 {
-    private static string Repository()
-    {
-        for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
-            if (File.Exists(Path.Combine(d.FullName, "FoulingWatch.sln"))) return d.FullName;
-        throw new InvalidOperationException("FoulingWatch.sln not found above the test folder");
-    }
-
     [Fact]
     public void The_configuration_reference_is_generated_from_the_schema()
     {
-        var root = Repository();
-        var schema = JsonNode.Parse(File.ReadAllText(Path.Combine(root, "schema", "plant.schema.json")))!;
+        var root = SchemaFile.Repository();
+        var schema = JsonNode.Parse(File.ReadAllText(SchemaFile.Location))!;
         var expected = Generate(schema);
         var page = Path.Combine(root, "docs", "configuration.md");
         if (Environment.GetEnvironmentVariable("FOULINGWATCH_REGENERATE_DOCS") == "1")
@@ -84,7 +77,7 @@ public class ConfigurationReferenceTests
             sb.Append("| key | value | meaning, unit and default |\n|---|---|---|\n");
             foreach (var (name, child) in props)
             {
-                var resolved = Resolve(schema, child);
+                var resolved = SchemaFile.Resolve(schema, child);
                 sb.Append($"| `{name}` | {Kind(schema, child)} | {Cell(child?["description"]?.GetValue<string>() ?? resolved?["description"]?.GetValue<string>() ?? "")} |\n");
             }
             sb.Append('\n');
@@ -110,18 +103,11 @@ public class ConfigurationReferenceTests
 
     private static string? TypeOf(JsonNode? node) => node?["type"] is JsonValue v ? v.GetValue<string>() : null;
 
-    private static JsonNode? Resolve(JsonNode root, JsonNode? node)
-    {
-        while (node?["$ref"] is JsonValue r && r.GetValue<string>() is { } target && target.StartsWith("#/$defs/", StringComparison.Ordinal))
-            node = root["$defs"]![target["#/$defs/".Length..]];
-        return node;
-    }
-
     private static JsonNode? AsObject(JsonNode root, JsonNode? node)
     {
-        node = Resolve(root, node);
+        node = SchemaFile.Resolve(root, node);
         if (node?["properties"] is not null) return node;
-        if (node?["oneOf"] is JsonArray a) return a.Select(x => Resolve(root, x)).FirstOrDefault(x => x?["properties"] is not null && x["properties"]!["value"] is null);
+        if (node?["oneOf"] is JsonArray a) return a.Select(x => SchemaFile.Resolve(root, x)).FirstOrDefault(x => x?["properties"] is not null && x["properties"]!["value"] is null);
         if (TypeOf(node) == "array") return AsObject(root, node!["items"]);
         return null;
     }
@@ -138,7 +124,7 @@ public class ConfigurationReferenceTests
             // a shared definition (tag, fluid, stream, …) is described once, under its own name
             var reference = (child?["$ref"] ?? child?["items"]?["$ref"]) is JsonValue d ? d.GetValue<string>()["#/$defs/".Length..] : null;
             if (reference is not null) { Collect(root, child, $"({reference})", sections, depth + 1); continue; }
-            var isArray = TypeOf(Resolve(root, child)) == "array";
+            var isArray = TypeOf(SchemaFile.Resolve(root, child)) == "array";
             Collect(root, child, path.Length == 0 ? name + (isArray ? "[]" : "") : $"{path}.{name}{(isArray ? "[]" : "")}", sections, depth + 1);
         }
     }

@@ -10,16 +10,9 @@ namespace FoulingWatch.Ingest.Tests.Configuration;
 /// <summary>The JSON Schema (draft 2020-12) of the plant configuration against the reader and the repository's files.</summary>
 public class PlantSchemaTests
 {
-    private static string Repository()
-    {
-        for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
-            if (File.Exists(Path.Combine(d.FullName, "FoulingWatch.sln"))) return d.FullName;
-        throw new InvalidOperationException("FoulingWatch.sln not found above the test folder");
-    }
-
-    private static string SchemaPath => Path.Combine(Repository(), "schema", "plant.schema.json");
-    private static string EveryKey => Path.Combine(Repository(), "tests", "data", "config", "every-key.json");
-    private static string Sample => Path.Combine(Repository(), "sample-data", "plant.json");
+    private static string SchemaPath => SchemaFile.Location;
+    private static string EveryKey => Path.Combine(SchemaFile.Repository(), "tests", "data", "config", "every-key.json");
+    private static string Sample => Path.Combine(SchemaFile.Repository(), "sample-data", "plant.json");
 
     private static readonly JsonDocumentOptions Relaxed = new() { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true };
 
@@ -91,27 +84,20 @@ public class PlantSchemaTests
     /// <summary>The property names of the schema's object at a reader path such as "exchangers[].hot.flow".</summary>
     private static HashSet<string> Properties(JsonNode root, string path)
     {
-        var node = ObjectSchema(root, Resolve(root, root));
+        var node = ObjectSchema(root, SchemaFile.Resolve(root, root));
         foreach (var segment in path.Length == 0 ? [] : path.Split('.'))
         {
             var name = segment.TrimEnd('[', ']');
-            node = ObjectSchema(root, Resolve(root, node?["properties"]?[name]));
-            for (var i = 0; i < (segment.Length - name.Length) / 2; i++) node = ObjectSchema(root, Resolve(root, node?["items"]));
+            node = ObjectSchema(root, SchemaFile.Resolve(root, node?["properties"]?[name]));
+            for (var i = 0; i < (segment.Length - name.Length) / 2; i++) node = ObjectSchema(root, SchemaFile.Resolve(root, node?["items"]));
         }
         return node?["properties"] is JsonObject p ? p.Select(kv => kv.Key).ToHashSet() : [];
-    }
-
-    private static JsonNode? Resolve(JsonNode root, JsonNode? node)
-    {
-        while (node?["$ref"] is JsonValue r && r.GetValue<string>() is { } target && target.StartsWith("#/$defs/", StringComparison.Ordinal))
-            node = root["$defs"]![target["#/$defs/".Length..]];
-        return node;
     }
 
     /// <summary>The alternative of a oneOf that describes an object, or the node itself.</summary>
     private static JsonNode? ObjectSchema(JsonNode root, JsonNode? node) =>
         node?["oneOf"] is JsonArray alternatives
-            ? alternatives.Select(a => Resolve(root, a)).FirstOrDefault(a => a?["properties"] is not null) ?? node
+            ? alternatives.Select(a => SchemaFile.Resolve(root, a)).FirstOrDefault(a => a?["properties"] is not null) ?? node
             : node;
 
     private static bool IsQuantity(JsonNode? node) =>
@@ -122,7 +108,7 @@ public class PlantSchemaTests
     /// <summary>Every object path the schema describes, as the reader writes paths.</summary>
     private static void Walk(JsonNode root, JsonNode? node, string path, List<string> found, int depth)
     {
-        node = ObjectSchema(root, Resolve(root, node));
+        node = ObjectSchema(root, SchemaFile.Resolve(root, node));
         if (node is null || depth > 8) return;
         if (node["properties"] is JsonObject props)
         {
@@ -130,10 +116,10 @@ public class PlantSchemaTests
             foreach (var (name, child) in props)
             {
                 if (IsQuantity(child) || IsQuantity(child?["items"])) continue; // a value, not an object of settings
-                var c = ObjectSchema(root, Resolve(root, child));
+                var c = ObjectSchema(root, SchemaFile.Resolve(root, child));
                 var childPath = path.Length == 0 ? name : $"{path}.{name}";
                 if (c?["properties"] is not null) Walk(root, c, childPath, found, depth + 1);
-                else if (ObjectSchema(root, Resolve(root, c?["items"])) is { } items && items["properties"] is not null)
+                else if (ObjectSchema(root, SchemaFile.Resolve(root, c?["items"])) is { } items && items["properties"] is not null)
                     Walk(root, items, childPath + "[]", found, depth + 1);
             }
         }
