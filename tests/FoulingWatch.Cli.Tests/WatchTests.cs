@@ -19,7 +19,7 @@ public sealed class ManualClock(DateTimeOffset start) : TimeProvider
 /// <summary>An invented plant ("Sandpiper Works") for the watch tests: one exchanger, exports of one-minute data.</summary>
 public sealed class WatchPlant : IDisposable
 {
-    public WatchPlant(string extraWatch = "")
+    public WatchPlant(string extraWatch = "", string files = "\"export-*.csv\"")
     {
         Directory = Path.Combine(Path.GetTempPath(), "fw-watch-tests", Guid.NewGuid().ToString("N"));
         System.IO.Directory.CreateDirectory(Path.Combine(Directory, "drop"));
@@ -27,7 +27,7 @@ public sealed class WatchPlant : IDisposable
             {
               "site": { "name": "Sandpiper Works (fictional)" },
               "watch": { "dropFolder": "drop", "store": "state/store.db", "out": "results", "pollInterval": "0.2 s", "settleTime": "2 s" {{extraWatch}} },
-              "data": { "interval": "10 min", "frozenAfter": "0 h", "sources": [ { "files": ["export-*.csv"] } ] },
+              "data": { "interval": "10 min", "frozenAfter": "0 h", "sources": [ { "files": [{{files}}] } ] },
               "exchangers": [ {
                 "id": "S-1", "arrangement": "counterflow", "area": "120 m2",
                 "hot":  { "side": "shell", "fluid": { "model": "constant-cp", "cp": "2300 J/kgK" }, "flow": { "tag": "FH", "unit": "kg/s" },
@@ -237,8 +237,9 @@ public class WatchTests
         Assert.Contains("newer FoulingWatch (schema 99", ex.Message);
     }
 
-    // Crash test: the service is killed (SIGKILL) at random moments while it ingests; after each restart it goes on.
-    // At the end the store must hold exactly what an uninterrupted run stores: nothing lost, nothing twice.
+    // Crash test: the service is killed (SIGKILL) 20 times at random moments while it ingests and analyses; after each
+    // restart it goes on. At the end the store must hold exactly what an uninterrupted run stores, value by value and
+    // count by count: nothing lost, nothing twice.
     [Fact]
     public void A_service_killed_at_random_moments_loses_and_duplicates_nothing()
     {
@@ -251,21 +252,23 @@ public class WatchTests
         // the reference: one uninterrupted run, in process
         var reference = config.Watch with { Store = Path.Combine(plant.Directory, "reference.db"), Out = Path.Combine(plant.Directory, "reference-out"), SettleTime = TimeSpan.Zero };
         string expected;
+        Dictionary<string, Ingest.Historian.TagLedger> expectedLedgers;
         using (var store = new WatchStore(reference.Store))
         {
             var loop = new WatchLoop(config, reference, store, new ManualClock(DateTimeOffset.UtcNow), NullLogger.Instance);
             loop.Poll();
             Assert.Equal(4, store.Files().Count);
             expected = store.ContentDigest();
+            expectedLedgers = store.Ledgers();
         }
 
         var cli = Path.Combine(AppContext.BaseDirectory, "foulingwatch.dll");
         var rng = new Random(20261201);
         var storePath = config.Watch.Store;
-        for (var attempt = 0; attempt < 8; attempt++)
+        for (var attempt = 0; attempt < 20; attempt++)
         {
             using var p = StartService(cli, plant.ConfigPath);
-            Thread.Sleep(rng.Next(1500, 5000));
+            Thread.Sleep(rng.Next(700, 2600));
             p.Kill();  // SIGKILL on Linux
             p.WaitForExit();
         }
@@ -279,8 +282,12 @@ public class WatchTests
         using var final = new WatchStore(storePath);
         Assert.Equal(4, final.Files().Count(f => f.Error is null));
         Assert.Equal(expected, final.ContentDigest());
-        var ledger = final.Ledger("FH")!;
-        Assert.Equal(ledger.Read, ledger.Used + ledger.RejectedTotal);
+        foreach (var (tag, want) in expectedLedgers)
+        {
+            var got = final.Ledger(tag)!;
+            Assert.Equal((want.Read, want.Used, want.RejectedTotal), (got.Read, got.Used, got.RejectedTotal));
+            Assert.Equal(got.Read, got.Used + got.RejectedTotal);
+        }
     }
 
     private static int FilesIn(string store)

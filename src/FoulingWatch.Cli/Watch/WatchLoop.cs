@@ -7,6 +7,7 @@ using FoulingWatch.Analysis.BackCalculation;
 using FoulingWatch.Ingest.Configuration;
 using FoulingWatch.Ingest.Historian;
 using FoulingWatch.Reporting.Results;
+using Microsoft.Data.Sqlite;
 using Microsoft.Extensions.Logging;
 
 namespace FoulingWatch.Cli.Watch;
@@ -46,21 +47,37 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
                         name, string.Join(", ", config.Data.Sources.SelectMany(s => s.Patterns)));
                 continue;
             }
-            if (!IsSettled(path)) continue;
+            // Whatever goes wrong with one file (unreadable, a dangling link, damaged compression, bad data) is recorded as
+            // refused with its reason, once; the pass goes on with the next file.
             try
             {
+                if (!IsSettled(path)) continue;
                 if (IngestFile(path, source)) ingested++;
             }
-            catch (Exception ex) when (ex is IngestException or ConfigurationException or IOException or Core.Quantities.QuantityOutOfRangeException)
+            catch (Exception ex) when (ex is not SqliteException and not OutOfMemoryException)
             {
-                log.LogError("Could not ingest {File}: {Reason}", name, ex.Message);
-                var info = new FileInfo(path);
-                store.RecordFailure(new StoredFile(Hash(path), name, info.Length, 0, clock.GetUtcNow(), ex.Message));
+                Refuse(path, ex);
             }
         }
         if (ingested > 0 || (!_analysedOnce && store.ValueCount() > 0)) Analyse();
         EvaluateStaleData();
         return ingested;
+    }
+
+    /// <summary>Records a file that cannot be read, under its content hash (or its name when it cannot even be opened), so
+    /// it is skipped until its content changes; logged once.</summary>
+    private void Refuse(string path, Exception ex)
+    {
+        var name = Path.GetFileName(path);
+        string key;
+        long length = 0;
+        try { key = Hash(path); length = new FileInfo(path).Length; }
+        catch (Exception) { key = "unreadable:" + name; }
+        if (store.FileByHash(key) is not null) return;
+        var reason = ex is IngestException or ConfigurationException or InvalidDataException or IOException or UnauthorizedAccessException
+            ? ex.Message : $"{ex.GetType().Name}: {ex.Message}";
+        log.LogError("Refused {File}: {Reason}. It is skipped until its content changes; later files go on", name, reason);
+        store.RecordFailure(new StoredFile(key, name, length, 0, clock.GetUtcNow(), reason));
     }
 
     /// <summary>A file is taken only when its size and time stamp have not changed for the settle time (a file still being written is waited for).</summary>
@@ -101,30 +118,46 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         return Convert.ToHexString(sha.GetHashAndReset());
     }
 
+    /// <summary>
+    /// Ingests a settled file. Known content is skipped. A file that grew from one already read (same bytes up to its
+    /// length) is read from where that one ended, or whole again when that one ended inside a line (its last values are
+    /// then replaced by the finished line). Other content under a known name is a correction (<see cref="WatchSettings.Corrections"/>).
+    /// A compressed file is read only when its stream is complete and its check values hold.
+    /// </summary>
     private bool IngestFile(string path, HistorianSource source)
     {
         var name = Path.GetFileName(path);
         var hash = Hash(path);
         if (store.FileByHash(hash) is not null) return false;
         var length = new FileInfo(path).Length;
-        // Only complete lines are taken: a last line without its line break is left for the next pass.
-        var usable = LastLineEnd(path, length);
-        if (usable <= 0) return false;
+        var compressed = path.EndsWith(".gz", StringComparison.OrdinalIgnoreCase);
+        if (compressed) CheckCompressed(path);
+        var earlier = store.Files().Where(f => f.Name == name && f.Error is null && f.SupersededAt is null).ToList();
         var readFrom = 0L;
-        var previous = store.Files().Where(f => f.Name == name && f.Error is null && f.Length < usable && !path.EndsWith(".gz", StringComparison.OrdinalIgnoreCase))
-            .OrderByDescending(f => f.Length).FirstOrDefault();
-        if (previous is not null && PrefixHash(path, previous.Length) == previous.Hash) readFrom = previous.Length;
-        var work = readFrom > 0 || usable < length ? Excerpt(path, source, readFrom, usable) : path;
+        var mode = StoreMode.Add;
+        IReadOnlyList<StoredFile> supersedes = [];
+        var kind = "whole file";
+        if (earlier.Count > 0)
+        {
+            var latest = earlier.MaxBy(f => f.Length)!;
+            var grown = !compressed && latest.Length < length && PrefixHash(path, latest.Length) == latest.Hash;
+            if (grown && EndsLine(path, latest.Length)) (readFrom, kind) = (latest.Length, "new rows only");
+            else if (grown || settings.Corrections == "latest")
+                (mode, supersedes, kind) = (StoreMode.Replace, earlier, grown ? "grown from an unfinished line, read again" : "correction, replaces the earlier export");
+            else kind = "same name, other content; stored values kept";
+        }
+        var work = readFrom > 0 ? Excerpt(path, source, readFrom, length) : path;
         try
         {
             var single = config with { Data = config.Data with { Sources = [source with { Files = [work] }] } };
             var sink = new RawValueSink();
             var result = HistorianIngest.Run(single, sink: sink, requireAllTags: false);
-            var values = sink.Values();
-            var stored = new StoredFile(usable == length ? hash : PrefixHash(path, usable), name, usable, 0, clock.GetUtcNow(), null);
-            var inserted = store.Ingest(stored, values, result.TagLedgers.Where(kv => kv.Value.Read > 0).ToDictionary(kv => kv.Key, kv => kv.Value));
-            log.LogInformation("Ingested {File} ({Mode}): {New} new values of {Read} read, {Rejected} rejected",
-                name, readFrom > 0 ? "new rows only" : "whole file", inserted.Values.Sum(), result.TagLedgers.Values.Sum(l => l.Read), result.TagLedgers.Values.Sum(l => l.RejectedTotal));
+            var stored = new StoredFile(hash, name, length, 0, clock.GetUtcNow(), null);
+            var outcome = store.Ingest(stored, sink.Values(), result.TagLedgers.Where(kv => kv.Value.Read > 0).ToDictionary(kv => kv.Key, kv => kv.Value),
+                mode, supersedes);
+            log.LogInformation("Ingested {File} ({Mode}): {New} new values, {Replaced} replaced, of {Read} read, {Rejected} rejected",
+                name, kind, outcome.Inserted.Values.Sum(), outcome.Replaced.Values.Sum(), result.TagLedgers.Values.Sum(l => l.Read),
+                result.TagLedgers.Values.Sum(l => l.RejectedTotal));
             // One line per file for the rejections, by tag and reason (routine text markers are no reason for a line each).
             var rejected = result.TagLedgers.Where(kv => kv.Value.RejectedTotal > 0).OrderBy(kv => kv.Key, StringComparer.Ordinal)
                 .Select(kv => $"{kv.Key} " + string.Join(" ", RejectReasons.All.Where(r => kv.Value.Rejected[(int)r] > 0).Select(r => $"{r.Key()} {kv.Value.Rejected[(int)r]}")))
@@ -138,22 +171,22 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         }
     }
 
-    private static long LastLineEnd(string path, long length)
+    /// <summary>Reads a compressed file to its end: the decompressor checks the deflate data and CRC-32, the size check
+    /// the trailer's length (RFC 1952), so a copy still running or cut short is refused, never half stored.</summary>
+    private static void CheckCompressed(string path)
     {
-        if (path.EndsWith(".gz", StringComparison.OrdinalIgnoreCase)) return length;
+        using var s = ExportStream.Open(path);
+        var buffer = new byte[1 << 16];
+        while (s.Read(buffer, 0, buffer.Length) > 0) { }
+    }
+
+    /// <summary>Whether the byte before <paramref name="at"/> ends a line.</summary>
+    private static bool EndsLine(string path, long at)
+    {
         using var fs = File.OpenRead(path);
-        var buffer = new byte[4096];
-        var end = length;
-        while (end > 0)
-        {
-            var start = Math.Max(0, end - buffer.Length);
-            fs.Position = start;
-            var n = fs.Read(buffer, 0, (int)(end - start));
-            for (var i = n - 1; i >= 0; i--)
-                if (buffer[i] == (byte)'\n') return start + i + 1;
-            end = start;
-        }
-        return 0;
+        fs.Position = at - 1;
+        var b = fs.ReadByte();
+        return b is '\n' or '\r';
     }
 
     /// <summary>A temporary export holding the header part of the file (up to the first data row) and its bytes [from, to).</summary>

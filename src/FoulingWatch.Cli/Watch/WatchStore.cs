@@ -4,8 +4,14 @@ using Microsoft.Data.Sqlite;
 
 namespace FoulingWatch.Cli.Watch;
 
-/// <summary>A file the store has ingested: recognised by the SHA-256 of its content, not by its name.</summary>
-public sealed record StoredFile(string Hash, string Name, long Length, long Values, DateTimeOffset IngestedAt, string? Error);
+/// <summary>A file the store has ingested: recognised by the SHA-256 of its content, not by its name. A file that a
+/// correction under the same name replaced keeps its row with the time it was superseded.</summary>
+public sealed record StoredFile(string Hash, string Name, long Length, long Values, DateTimeOffset IngestedAt, string? Error,
+    DateTimeOffset? SupersededAt = null);
+
+/// <summary>How a file's values enter the store: <see cref="Add"/> keeps values already held (they count as duplicates);
+/// <see cref="Replace"/> overwrites them (a correction, or a file whose unfinished last line was read before).</summary>
+public enum StoreMode { Add, Replace }
 
 /// <summary>An alert episode: raised once when its condition starts, cleared when it ends.</summary>
 public sealed record StoredAlert(long Id, string Exchanger, string Kind, string Message, DateTimeOffset RaisedAt, DateTimeOffset? ClearedAt);
@@ -17,7 +23,8 @@ public sealed record StoredAlert(long Id, string Exchanger, string Kind, string 
 /// </summary>
 public sealed class WatchStore : IDisposable
 {
-    /// <summary>Schema versions, each a migration from the one before. Version 1 lacked the per-sample results and alert clearing.</summary>
+    /// <summary>Schema versions, each a migration from the one before. Version 1 lacked the per-sample results and alert
+    /// clearing; version 2 the counts per file, which let a correction replace an earlier file's counts.</summary>
     public static readonly string[] Migrations =
     [
         """
@@ -31,6 +38,11 @@ public sealed class WatchStore : IDisposable
         ALTER TABLE alerts ADD COLUMN cleared_at TEXT;
         CREATE TABLE sample_results (exchanger TEXT NOT NULL, ts INTEGER NOT NULL, status TEXT NOT NULL, rf REAL, rf_sigma REAL, u_actual REAL, u_clean REAL, lost_duty REAL,
             PRIMARY KEY (exchanger, ts)) WITHOUT ROWID;
+        """,
+        """
+        ALTER TABLE files ADD COLUMN superseded_at TEXT;
+        CREATE TABLE file_ledgers (hash TEXT NOT NULL, tag TEXT NOT NULL, read INTEGER NOT NULL, used INTEGER NOT NULL, rejected TEXT NOT NULL,
+            markers TEXT NOT NULL, PRIMARY KEY (hash, tag)) WITHOUT ROWID;
         """,
     ];
 
@@ -78,63 +90,120 @@ public sealed class WatchStore : IDisposable
         return c.ExecuteScalar();
     }
 
-    public StoredFile? FileByHash(string hash) => Files().FirstOrDefault(f => f.Hash == hash);
+    /// <summary>The stored file with this content hash (ingested or refused), unless a correction superseded it.</summary>
+    public StoredFile? FileByHash(string hash) => Files().FirstOrDefault(f => f.Hash == hash && f.SupersededAt is null);
 
     public IReadOnlyList<StoredFile> Files()
     {
         using var c = _db.CreateCommand();
-        c.CommandText = "SELECT hash, name, length, \"values\", ingested_at, error FROM files ORDER BY ingested_at, name";
+        c.CommandText = "SELECT hash, name, length, \"values\", ingested_at, error, superseded_at FROM files ORDER BY ingested_at, name";
         using var r = c.ExecuteReader();
         var list = new List<StoredFile>();
+        DateTimeOffset Time(int i) => DateTimeOffset.Parse(r.GetString(i), System.Globalization.CultureInfo.InvariantCulture);
         while (r.Read())
-            list.Add(new StoredFile(r.GetString(0), r.GetString(1), r.GetInt64(2), r.GetInt64(3), DateTimeOffset.Parse(r.GetString(4), System.Globalization.CultureInfo.InvariantCulture), r.IsDBNull(5) ? null : r.GetString(5)));
+            list.Add(new StoredFile(r.GetString(0), r.GetString(1), r.GetInt64(2), r.GetInt64(3), Time(4), r.IsDBNull(5) ? null : r.GetString(5),
+                r.IsDBNull(6) ? null : Time(6)));
         return list;
     }
 
-    /// <summary>Stores one ingested file in one transaction: its values (new ones only), its ledger, and its hash. Returns the values newly stored per tag.</summary>
-    public Dictionary<string, long> Ingest(StoredFile file, IReadOnlyList<(string Tag, long UtcTicks, double Value)> values, IReadOnlyDictionary<string, TagLedger> ledgers)
+    /// <summary>What one file changed in the store: values newly stored and stored values it replaced, per tag.</summary>
+    public sealed record IngestOutcome(Dictionary<string, long> Inserted, Dictionary<string, long> Replaced);
+
+    /// <summary>
+    /// Stores one ingested file in one transaction: its values, its counts (per file and in the running ledger) and its
+    /// hash. Files it <paramref name="supersedes"/> (earlier versions under its name) are marked so and their counts taken
+    /// out of the ledger, so a correction does not count its rows twice.
+    /// </summary>
+    public IngestOutcome Ingest(StoredFile file, IReadOnlyList<(string Tag, long UtcTicks, double Value)> values,
+        IReadOnlyDictionary<string, TagLedger> ledgers, StoreMode mode = StoreMode.Add, IReadOnlyList<StoredFile>? supersedes = null)
     {
         using var tx = _db.BeginTransaction();
-        var inserted = new Dictionary<string, long>(StringComparer.Ordinal);
-        using (var c = _db.CreateCommand())
+        var (inserted, replaced) = StoreValues(values, mode, tx);
+        var totals = new Dictionary<string, TagLedger>(StringComparer.Ordinal);
+        TagLedger Total(string tag) => totals.TryGetValue(tag, out var t) ? t : totals[tag] = Ledger(tag, tx) ?? new TagLedger(tag);
+        foreach (var old in supersedes ?? [])
         {
+            foreach (var (tag, counts) in FileLedgers(old.Hash, tx)) Total(tag).Subtract(counts);
+            using var c = _db.CreateCommand();
             c.Transaction = tx;
-            c.CommandText = "INSERT OR IGNORE INTO raw_values (tag, ts, value) VALUES ($tag, $ts, $value)";
-            var tag = c.Parameters.Add("$tag", SqliteType.Text);
-            var ts = c.Parameters.Add("$ts", SqliteType.Integer);
-            var value = c.Parameters.Add("$value", SqliteType.Real);
-            c.Prepare();
-            foreach (var v in values)
-            {
-                tag.Value = v.Tag;
-                ts.Value = v.UtcTicks;
-                value.Value = v.Value;
-                var n = c.ExecuteNonQuery();
-                inserted[v.Tag] = inserted.GetValueOrDefault(v.Tag) + n;
-            }
+            c.CommandText = "UPDATE files SET superseded_at = $t WHERE hash = $h";
+            c.Parameters.AddWithValue("$t", file.IngestedAt.ToString("O", System.Globalization.CultureInfo.InvariantCulture));
+            c.Parameters.AddWithValue("$h", old.Hash);
+            c.ExecuteNonQuery();
         }
         foreach (var (tagName, ledger) in ledgers)
         {
-            // values the store already holds (an overlapping or repeated export) count as duplicates
-            var used = values.Count(v => v.Tag == tagName);
-            var copy = new TagLedger(tagName);
-            copy.Merge(ledger);
-            copy.Reclassify(used - inserted.GetValueOrDefault(tagName), RejectReason.Duplicate);
-            var stored = Ledger(tagName);
-            if (stored is not null) copy.Merge(stored);
-            using var c = _db.CreateCommand();
-            c.Transaction = tx;
-            c.CommandText = "INSERT OR REPLACE INTO ledger (tag, read, used, rejected, markers) VALUES ($tag, $read, $used, $rejected, $markers)";
-            c.Parameters.AddWithValue("$tag", tagName);
-            c.Parameters.AddWithValue("$read", copy.Read);
-            c.Parameters.AddWithValue("$used", copy.Used);
-            c.Parameters.AddWithValue("$rejected", JsonSerializer.Serialize(copy.Rejected));
-            c.Parameters.AddWithValue("$markers", JsonSerializer.Serialize(copy.Markers));
-            c.ExecuteNonQuery();
+            var own = new TagLedger(tagName);
+            own.Merge(ledger);
+            // Adding: values the store already holds (an overlapping or repeated export) count as duplicates.
+            if (mode == StoreMode.Add) own.Reclassify(values.Count(v => v.Tag == tagName) - inserted.GetValueOrDefault(tagName), RejectReason.Duplicate);
+            WriteLedger("file_ledgers", file.Hash, own, tx);
+            Total(tagName).Merge(own);
         }
-        AddFile(file with { Values = inserted.Values.Sum() }, tx);
+        foreach (var total in totals.Values) WriteLedger("ledger", null, total, tx);
+        AddFile(file with { Values = inserted.Values.Sum() + replaced.Values.Sum() }, tx);
         tx.Commit();
-        return inserted;
+        return new IngestOutcome(inserted, replaced);
+    }
+
+    private (Dictionary<string, long> Inserted, Dictionary<string, long> Replaced) StoreValues(
+        IReadOnlyList<(string Tag, long UtcTicks, double Value)> values, StoreMode mode, SqliteTransaction tx)
+    {
+        var inserted = new Dictionary<string, long>(StringComparer.Ordinal);
+        var replaced = new Dictionary<string, long>(StringComparer.Ordinal);
+        using var insert = _db.CreateCommand();
+        insert.Transaction = tx;
+        insert.CommandText = "INSERT OR IGNORE INTO raw_values (tag, ts, value) VALUES ($tag, $ts, $value)";
+        using var update = _db.CreateCommand();
+        update.Transaction = tx;
+        update.CommandText = "UPDATE raw_values SET value = $value WHERE tag = $tag AND ts = $ts AND value <> $value";
+        var p = new[] { insert, update }.Select(c => (Tag: c.Parameters.Add("$tag", SqliteType.Text), Ts: c.Parameters.Add("$ts", SqliteType.Integer),
+            Value: c.Parameters.Add("$value", SqliteType.Real))).ToArray();
+        insert.Prepare();
+        update.Prepare();
+        foreach (var v in values)
+        {
+            foreach (var q in p) { q.Tag.Value = v.Tag; q.Ts.Value = v.UtcTicks; q.Value.Value = v.Value; }
+            if (mode == StoreMode.Replace && update.ExecuteNonQuery() > 0) replaced[v.Tag] = replaced.GetValueOrDefault(v.Tag) + 1;
+            else inserted[v.Tag] = inserted.GetValueOrDefault(v.Tag) + insert.ExecuteNonQuery();
+        }
+        return (inserted, replaced);
+    }
+
+    private void WriteLedger(string table, string? hash, TagLedger l, SqliteTransaction tx)
+    {
+        using var c = _db.CreateCommand();
+        c.Transaction = tx;
+        c.CommandText = hash is null
+            ? "INSERT OR REPLACE INTO ledger (tag, read, used, rejected, markers) VALUES ($tag, $read, $used, $rejected, $markers)"
+            : $"INSERT OR REPLACE INTO {table} (hash, tag, read, used, rejected, markers) VALUES ($hash, $tag, $read, $used, $rejected, $markers)";
+        if (hash is not null) c.Parameters.AddWithValue("$hash", hash);
+        c.Parameters.AddWithValue("$tag", l.Tag);
+        c.Parameters.AddWithValue("$read", l.Read);
+        c.Parameters.AddWithValue("$used", l.Used);
+        c.Parameters.AddWithValue("$rejected", JsonSerializer.Serialize(l.Rejected));
+        c.Parameters.AddWithValue("$markers", JsonSerializer.Serialize(l.Markers));
+        c.ExecuteNonQuery();
+    }
+
+    private List<(string Tag, TagLedger Counts)> FileLedgers(string hash, SqliteTransaction tx)
+    {
+        using var c = _db.CreateCommand();
+        c.Transaction = tx;
+        c.CommandText = "SELECT tag, read, used, rejected, markers FROM file_ledgers WHERE hash = $hash";
+        c.Parameters.AddWithValue("$hash", hash);
+        using var r = c.ExecuteReader();
+        var list = new List<(string, TagLedger)>();
+        while (r.Read()) list.Add((r.GetString(0), ReadLedger(r.GetString(0), r, 1)));
+        return list;
+    }
+
+    private static TagLedger ReadLedger(string tag, SqliteDataReader r, int first)
+    {
+        var l = new TagLedger(tag);
+        l.Restore(r.GetInt64(first), r.GetInt64(first + 1), JsonSerializer.Deserialize<long[]>(r.GetString(first + 2))!,
+            JsonSerializer.Deserialize<Dictionary<string, long>>(r.GetString(first + 3))!);
+        return l;
     }
 
     /// <summary>Records a file that could not be ingested, so that it is not retried until its content changes.</summary>
@@ -159,16 +228,16 @@ public sealed class WatchStore : IDisposable
         c.ExecuteNonQuery();
     }
 
-    public TagLedger? Ledger(string tag)
+    public TagLedger? Ledger(string tag) => Ledger(tag, null);
+
+    private TagLedger? Ledger(string tag, SqliteTransaction? tx)
     {
         using var c = _db.CreateCommand();
+        c.Transaction = tx;
         c.CommandText = "SELECT read, used, rejected, markers FROM ledger WHERE tag = $tag";
         c.Parameters.AddWithValue("$tag", tag);
         using var r = c.ExecuteReader();
-        if (!r.Read()) return null;
-        var l = new TagLedger(tag);
-        l.Restore(r.GetInt64(0), r.GetInt64(1), JsonSerializer.Deserialize<long[]>(r.GetString(2))!, JsonSerializer.Deserialize<Dictionary<string, long>>(r.GetString(3))!);
-        return l;
+        return r.Read() ? ReadLedger(tag, r, 0) : null;
     }
 
     public Dictionary<string, TagLedger> Ledgers()

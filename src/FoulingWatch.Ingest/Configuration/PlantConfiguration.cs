@@ -18,10 +18,14 @@ public sealed record PlantConfiguration(
 /// <param name="AlertHorizon">A limit forecast inside this horizon raises an alert.</param>
 /// <param name="StaleAfter">No new data for this long raises a "data stopped" alert.</param>
 /// <param name="LogLevel">Least severe log events written: verbose, debug, information, warning, error or fatal.</param>
+/// <param name="Corrections">A dropped file with the name of one already read but other content (not just grown):
+/// "latest" (default) reads it as a correction whose values replace the stored ones and whose counts replace the earlier
+/// file's; "first" keeps the stored values and reads it as another export (values already held count as duplicates).</param>
 public sealed record WatchSettings(string DropFolder, string Store, string Out, string Log, TimeSpan PollInterval, TimeSpan SettleTime,
-    TimeSpan AlertHorizon, TimeSpan StaleAfter, string LogLevel = "information")
+    TimeSpan AlertHorizon, TimeSpan StaleAfter, string LogLevel = "information", string Corrections = "latest")
 {
     public static readonly string[] LogLevels = ["verbose", "debug", "information", "warning", "error", "fatal"];
+    public static readonly string[] CorrectionPolicies = ["latest", "first"];
 }
 
 /// <summary>Site name, its time zone (for historian local times) and the atmosphere used for gauge pressures in Pa.</summary>

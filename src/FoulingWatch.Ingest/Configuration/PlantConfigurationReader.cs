@@ -119,6 +119,10 @@ public static class PlantConfigurationReader
             level = null;
         }
         if (level is not null) w = w with { LogLevel = level };
+        var corrections = n?.String("corrections")?.ToLowerInvariant();
+        if (corrections is not null && !WatchSettings.CorrectionPolicies.Contains(corrections))
+            n!.Error("corrections", $"'{corrections}' is not a correction policy; use \"latest\" (a re-export replaces what it holds) or \"first\" (stored values are kept).");
+        else if (corrections is not null) w = w with { Corrections = corrections };
         n?.Done();
         return w;
     }

@@ -92,6 +92,20 @@ public sealed class TagLedger
         Rejected[(int)reason] += count;
     }
 
+    /// <summary>Takes away the counts of a file that a correction replaces (the watch store); marker texts that fall to zero go.</summary>
+    public void Subtract(TagLedger other)
+    {
+        Read -= other.Read;
+        Used -= other.Used;
+        for (var i = 0; i < Rejected.Length; i++) Rejected[i] -= other.Rejected[i];
+        foreach (var (k, v) in other.Markers)
+        {
+            var left = Markers.GetValueOrDefault(k) - v;
+            if (left > 0) Markers[k] = left;
+            else Markers.Remove(k);
+        }
+    }
+
     /// <summary>Restores counts kept in a store.</summary>
     public void Restore(long read, long used, long[] rejected, IReadOnlyDictionary<string, long> markers)
     {
