@@ -175,9 +175,18 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
     /// the trailer's length (RFC 1952), so a copy still running or cut short is refused, never half stored.</summary>
     private static void CheckCompressed(string path)
     {
-        using var s = ExportStream.Open(path);
-        var buffer = new byte[1 << 16];
-        while (s.Read(buffer, 0, buffer.Length) > 0) { }
+        try
+        {
+            using var s = ExportStream.Open(path);
+            var buffer = new byte[1 << 16];
+            while (s.Read(buffer, 0, buffer.Length) > 0) { }
+        }
+        catch (Exception ex) when (ex is InvalidDataException or EndOfStreamException)
+        {
+            // the runtime names a failed CRC "an unsupported compression method": say what it means
+            throw new IngestException(path, null, null, $"the compressed stream is damaged or incomplete (its data, CRC-32 or size do not check: {ex.Message}); " +
+                "it is read again when the file changes, e.g. when a copy still running ends");
+        }
     }
 
     /// <summary>Whether the byte before <paramref name="at"/> ends a line.</summary>
