@@ -184,7 +184,7 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         catch (Exception ex) when (ex is InvalidDataException or EndOfStreamException)
         {
             // the runtime names a failed CRC "an unsupported compression method": say what it means
-            throw new IngestException(path, null, null, $"the compressed stream is damaged or incomplete (its data, CRC-32 or size do not check: {ex.Message}); " +
+            throw new IngestException(path, null, null, $"the compressed stream is damaged or incomplete (its data, CRC-32 or size do not check); " +
                 "it is read again when the file changes, e.g. when a copy still running ends");
         }
     }

@@ -280,12 +280,22 @@ internal sealed class CompleteGzipStream : Stream
     {
         _checked = true;
         using var tail = new FileStream(_file.Name, FileMode.Open, FileAccess.Read, FileShare.ReadWrite);
-        if (tail.Length < 18) throw new InvalidDataException("the file is shorter than a gzip header and trailer");
+        if (tail.Length < 18) throw Incomplete("the file is shorter than a gzip header and trailer");
         tail.Position = tail.Length - 4;
         Span<byte> size = stackalloc byte[4];
         tail.ReadExactly(size);
         if (BitConverter.ToUInt32(size) != (uint)_read)
-            throw new InvalidDataException($"the data end after {_read:N0} bytes, before the size its trailer states");
+            throw Incomplete($"the data end after {_read:N0} bytes, before the size its trailer states");
+    }
+
+    /// <summary>Marks the size check's own errors (their words say what is wrong; the runtime's may not).</summary>
+    public const string SizeCheck = "FoulingWatch.SizeCheck";
+
+    private static InvalidDataException Incomplete(string message)
+    {
+        var e = new InvalidDataException(message);
+        e.Data[SizeCheck] = true;
+        return e;
     }
 
     protected override void Dispose(bool disposing)

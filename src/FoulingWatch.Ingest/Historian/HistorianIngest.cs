@@ -95,8 +95,10 @@ public static partial class HistorianIngest
                 }
                 catch (Exception ex) when (ex is InvalidDataException or EndOfStreamException)
                 {
+                    // (the runtime words a failed CRC-32 as "an unsupported compression method": not shown)
+                    var detail = ex.Data.Contains(CompleteGzipStream.SizeCheck) ? ex.Message : "its data or CRC-32 do not check";
                     throw new IngestException(file, null, null,
-                        $"the compressed stream is damaged or incomplete ({ex.Message}); copy or export the file again, or unpack it and point the source at the CSV.");
+                        $"the compressed stream is damaged or incomplete ({detail}); copy or export the file again, or unpack it and point the source at the CSV.");
                 }
                 files.Add(report);
                 progress?.Report((file, ++done / (double)allFiles.Count));
@@ -188,7 +190,7 @@ public static partial class HistorianIngest
     }
 
     private static CsvReader OpenReader(string file, FileDialect dialect) =>
-        CsvReader.Create(ExportStream.OpenAt(file, dialect.HeaderByteOffset), ReaderOptions(dialect, hasHeader: true), leaveOpen: false);
+        CsvReader.Create(new QuoteBalancingStream(ExportStream.OpenAt(file, dialect.HeaderByteOffset)), ReaderOptions(dialect, hasHeader: true), leaveOpen: false);
 
     /// <summary>How every export is read: the dialect's separator and encoding, line numbers kept for the messages.</summary>
     private static CsvReaderOptions ReaderOptions(FileDialect dialect, bool hasHeader) => new()

@@ -278,17 +278,17 @@ public static partial class HistorianIngest
     /// the file, which would swallow every row up to it into one value. Its line's quotes become apostrophes: the line
     /// still splits at its delimiters, the damaged value is rejected as text and counted, and no other row is lost.
     /// Quoted fields that close within the allowance, line breaks and all, are left as they are. Lines still undecided
-    /// at the end of <paramref name="data"/> (more to read) are left for the next pass.
+    /// at the end of <paramref name="data"/> (more to read) are left for the next pass. Returns the length decided.
     /// </summary>
-    internal static void BalanceQuotesPerLine(Span<byte> data, bool atEnd)
+    internal static int BalanceQuotesPerLine(Span<byte> data, bool atEnd)
     {
-        if (data.IndexOf((byte)'"') < 0) return;
+        if (data.IndexOf((byte)'"') < 0) return atEnd ? data.Length : Math.Max(0, data.LastIndexOf((byte)'\n') + 1);
         static bool Odd(ReadOnlySpan<byte> line) => (line.Count((byte)'"') & 1) == 1;
         var start = 0;
         while (start < data.Length)
         {
             var lf = data[start..].IndexOf((byte)'\n');
-            if (lf < 0 && !atEnd) return;
+            if (lf < 0 && !atEnd) return start;
             var line = lf < 0 ? data[start..] : data.Slice(start, lf);
             var next = lf < 0 ? data.Length : start + lf + 1;
             if (Odd(line))
@@ -298,9 +298,9 @@ public static partial class HistorianIngest
                 var pos = next;
                 for (var k = 0; k < MaxLineBreaksInField && closedAt < 0; k++)
                 {
-                    if (pos >= data.Length) { if (!atEnd) return; break; }
+                    if (pos >= data.Length) { if (!atEnd) return start; break; }
                     var lf2 = data[pos..].IndexOf((byte)'\n');
-                    if (lf2 < 0 && !atEnd) return;
+                    if (lf2 < 0 && !atEnd) return start;
                     var following = lf2 < 0 ? data[pos..] : data.Slice(pos, lf2);
                     var after = lf2 < 0 ? data.Length : pos + lf2 + 1;
                     if (Odd(following)) closedAt = after;
@@ -311,6 +311,7 @@ public static partial class HistorianIngest
             }
             start = next;
         }
+        return start;
     }
 
     /// <summary>The length of the run of whole records at the start of <paramref name="data"/>: up to the last line break outside quotes, or -1.</summary>
@@ -394,13 +395,30 @@ public static partial class HistorianIngest
         return (breaks + loneReturns, quotes, loneReturns);
     }
 
-    private static CsvReader OpenPart(FilePart part, FileDialect dialect)
+    /// <summary>
+    /// The CSV reader over a part. The reader takes bytes FF FE, FE FF or EF BB BF at the start of what it is given for
+    /// a byte-order mark and decodes the whole part by it (FF FE: as UTF-16), so a part that merely starts with such
+    /// bytes (a damaged row) would read as nonsense while the same bytes inside a part read as text. Such a part is
+    /// given with an empty line in front (skipped, and taken off the line numbers: <paramref name="shift"/>).
+    /// </summary>
+    private static CsvReader OpenPart(FilePart part, FileDialect dialect, out int shift)
     {
         var options = ReaderOptions(dialect, hasHeader: part.First);
+        var data = part.Buffer.AsMemory(0, part.Length);
+        var span = data.Span;
+        shift = span.Length >= 2 && (span[0], span[1]) is (0xFF, 0xFE) or (0xFE, 0xFF) or (0xEF, 0xBB) ? 1 : 0;
+        if (shift == 1)
+        {
+            var copy = new byte[data.Length + 1];
+            copy[0] = (byte)'\n';
+            span.CopyTo(copy.AsSpan(1));
+            data = copy;
+        }
         // UTF-8 is read in place; another encoding (Windows-1252) is transcoded by the reader.
         return options.Encoding is null
-            ? CsvReader.Create(part.Buffer.AsMemory(0, part.Length), options)
-            : CsvReader.Create(new MemoryStream(part.Buffer, 0, part.Length, writable: false), options, leaveOpen: false);
+            ? CsvReader.Create(data, options)
+            : CsvReader.Create(shift == 0 ? new MemoryStream(part.Buffer, 0, part.Length, writable: false) : new MemoryStream(data.ToArray(), writable: false),
+                options, leaveOpen: false);
     }
 
     private static void ReadPart(FilePart part, WideFile wide, PartTarget target)
@@ -416,7 +434,7 @@ public static partial class HistorianIngest
     /// <summary>The rows of a part read by the CSV reader (quoting, other encodings, the header part).</summary>
     private static void ReadCsvPart(FilePart part, WideFile wide, PartTarget target)
     {
-        using var reader = OpenPart(part, wide.Dialect);
+        using var reader = OpenPart(part, wide.Dialect, out var shift);
         if (part.First) reader.ReadHeader();
         var skip = part.First ? wide.Dialect.MetadataRows : 0;
         var plans = wide.Plans;
@@ -429,7 +447,7 @@ public static partial class HistorianIngest
         {
             if (skip > 0) { skip--; continue; }
             rows++;
-            var line = part.LineBefore + reader.LineNumber;
+            var line = part.LineBefore + reader.LineNumber - shift;
             if (!AcceptRow(wide, target, reader.GetSpan(wide.TimestampColumn), line, out var utc)) continue;
             var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
             if (sink is not null)
@@ -497,6 +515,7 @@ public static partial class HistorianIngest
             if (record.IsEmpty) return;
             rows++;
             if (!AcceptRow(wide, target, Field(record, wide.TimestampColumn, delimiter), line, out var utc)) return;
+            if (plans.Length == 0) return; // a header naming no configured tag: the rows are counted, nothing is written
             var (sums, counts, cell) = target.Bins.Cells(utc / wide.Interval);
             // The hot loop writes a record's cells without bounds checks: the last column's cell must be inside.
             if ((uint)(cell + (plans.Length - 1) * PartBins.Stride) >= (uint)Math.Min(sums.Length, counts.Length))
