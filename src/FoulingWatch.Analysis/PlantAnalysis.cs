@@ -81,6 +81,7 @@ public static class PlantAnalysis
             "drift" => "check or recalibrate the drifting instrument named under sensors",
             "no-duty" => "check hot/cold assignment and swapped tags",
             "property-range" => "check the fluid models' ranges and the pressures",
+            "implausible" => "U far above the clean U: check flow units and scales, the area and the clean reference",
             _ => "see the status column of timeseries.csv",
         };
         return "no usable interval: " + string.Join(", ", top.Select(kv => FormattableString.Invariant($"{kv.Value:N0} {kv.Key}"))) +

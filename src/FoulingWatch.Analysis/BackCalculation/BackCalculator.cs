@@ -112,7 +112,10 @@ public static class BackCalculator
             var e = evaluations[k];
             if (!(e.UActual > 0)) { systematic[k] = double.NaN; return; }
             var used = e.Reconciliation?.Adjusted ?? e.Measurements;
-            evaluations[k] = evaluator.Complete(e, clean, used);
+            evaluations[k] = e = evaluator.Complete(e, clean, used);
+            if (e.Status == SampleStatus.Ok && e.Cleanliness > SampleStatusText.MaxCleanliness)
+                evaluations[k] = e = e with { Status = SampleStatus.Implausible, Detail = FormattableString.Invariant(
+                    $"U = {e.UActual:0} W/m2K is {e.Cleanliness:0.0} times the clean U; check flow units and scales, the area and the clean reference") };
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
             if (e.Status != SampleStatus.Ok) { systematic[k] = double.NaN; return; }

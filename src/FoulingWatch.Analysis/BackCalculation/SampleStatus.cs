@@ -26,6 +26,9 @@ public enum SampleStatus
     /// <summary>The sample lies after the onset of a lasting heat-balance change (an instrument drifting): its Rf would
     /// carry the drift, so it is not used for fouling.</summary>
     Drift,
+    /// <summary>The measured U is far above the clean U (cleanliness above <see cref="SampleStatusText.MaxCleanliness"/>):
+    /// no deposit explains it; a flow scale or unit, the area or the clean reference is wrong.</summary>
+    Implausible,
 }
 
 public static class SampleStatusText
@@ -43,8 +46,13 @@ public static class SampleStatusText
         SampleStatus.NoDuty => "no-duty",
         SampleStatus.Frozen => "frozen",
         SampleStatus.Drift => "drift",
+        SampleStatus.Implausible => "implausible",
         _ => s.ToString().ToLowerInvariant(),
     };
 
     public static readonly SampleStatus[] All = Enum.GetValues<SampleStatus>();
+
+    /// <summary>Highest cleanliness (U / U_clean) taken as a measurement (common practice: a clean reference is rarely
+    /// more than 20–30 % off, and measurement scatter adds a few percent; 1.5 leaves room for both).</summary>
+    public const double MaxCleanliness = 1.5;
 }

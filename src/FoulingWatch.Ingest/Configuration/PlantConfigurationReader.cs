@@ -414,7 +414,9 @@ public static class PlantConfigurationReader
         var id = n.String("id", required: true);
         var service = n.String("service") ?? "";
         var arrangement = ReadArrangement(n);
-        var area = n.Quantity("area", Dimension.Area, required: true, minSi: 0, exclusiveMin: true);
+        // Physical ranges (common practice): the largest surface condensers have some 10^5 m2, clean U of liquids and
+        // condensing steam stay below 2·10^4 W/m2K, and no single stream carries 10^5 kg/s (360,000 t/h).
+        var area = n.Quantity("area", Dimension.Area, required: true, minSi: 0, exclusiveMin: true, maxSi: 1e5);
         var atm = site?.AtmospherePascals ?? 101_325.0;
         var hot = ReadStream(n.Object("hot", required: true), Core.Exchangers.StreamSide.Hot, atm);
         var cold = ReadStream(n.Object("cold", required: true), Core.Exchangers.StreamSide.Cold, atm);
@@ -518,7 +520,7 @@ public static class PlantConfigurationReader
         switch (method?.ToLowerInvariant())
         {
             case "datasheet":
-                var u = n.Quantity("u", Dimension.HeatTransferCoefficient, required: true, minSi: 0, exclusiveMin: true);
+                var u = n.Quantity("u", Dimension.HeatTransferCoefficient, required: true, minSi: 1, maxSi: 2e4);
                 var share = n.Fraction("tubeShare", min: 0.05, max: 0.95) ?? 0.5;
                 var wall = n.Quantity("wallResistance", Dimension.FoulingResistance, minSi: 0) ?? 0;
                 var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? DatasheetCleanReference.DefaultUncertainty;
@@ -567,7 +569,7 @@ public static class PlantConfigurationReader
         var flow = ReadTag(n.Object("flow", required: true), Dimension.MassFlow, atmosphere, 0, double.MaxValue);
         var inlet = ReadTag(n.Object("inlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
         var outlet = ReadTag(n.Object("outlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
-        var design = n.Quantity("designFlow", Dimension.MassFlow, minSi: 0, exclusiveMin: true);
+        var design = n.Quantity("designFlow", Dimension.MassFlow, minSi: 0, exclusiveMin: true, maxSi: 1e5);
         n.Done();
         if (side is null || fluid is null || flow is null || inlet is null || outlet is null) return null;
         return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design);

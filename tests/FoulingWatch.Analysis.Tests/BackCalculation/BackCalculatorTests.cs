@@ -50,6 +50,27 @@ public class BackCalculatorTests
         Assert.True(early.Max() - early.Min() > 0.1, "the flow swing must be large enough to defeat U/U_design");
     }
 
+    // A clean reference ten times too low (or flows read a thousand times too large) gives a U no deposit explains:
+    // cleanliness far above 1 is a status of its own with the reason, not an "ok" sample with a negative Rf.
+    [Fact]
+    public void A_U_far_above_the_clean_U_is_implausible_not_ok()
+    {
+        using var plant = new SyntheticPlant("\"counterflow\"", Counterflow.Instance, TrueRf, days: 10,
+            clean: "{ \"method\": \"datasheet\", \"u\": \"50 W/m2K\", \"tubeShare\": \"45 %\" }");
+        var x = Assert.Single(plant.Analyse().Exchangers);
+        var judged = x.History.Samples.Where(s => s.Status is SampleStatus.Ok or SampleStatus.Implausible).ToList();
+        Assert.True(judged.Count > 200);
+        Assert.All(judged, s => Assert.Equal(SampleStatus.Implausible, s.Status));
+        Assert.Contains("times the clean U; check flow units and scales", judged[0].Evaluation.Detail);
+        var why = PlantAnalysis.NoUsableIntervals(PlantAnalysis.StatusCounts(x.History));
+        Assert.Contains("implausible", why);
+        Assert.Contains("U far above the clean U", why);
+
+        // the same exchanger with the right clean U: every judged sample stays ok (cleanliness ≤ 1 here)
+        using var right = new SyntheticPlant("\"counterflow\"", Counterflow.Instance, TrueRf, days: 10);
+        Assert.DoesNotContain(Assert.Single(right.Analyse().Exchangers).History.Samples, s => s.Status == SampleStatus.Implausible);
+    }
+
     // Synthetic: with the baseline method the clean U is fitted (Wilson plot) over the first 10 days, during which Rf = 0;
     // the fitted law then reproduces the datasheet law and Rf afterwards.
     [Theory]

@@ -266,4 +266,18 @@ public class AbsurdValueTests
         Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].area" && e.Message == "'1e400 m2' is not a finite number; check the value.");
         Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].maintenance[0].date" && e.Message == "'9999-12-31' is outside the years 1900 to 2199; check the date.");
     }
+
+    // Values no exchanger has (common practice ranges, see the reader): refused with the key and the range, instead of
+    // every sample becoming downtime (design flow 1e12 t/h) or a U no deposit can explain.
+    [Fact]
+    public void Physically_impossible_area_clean_U_and_design_flow_are_refused_with_their_ranges()
+    {
+        var x = TestPlant.Interchanger().Replace("\"250 m2\"", "\"1e30 m2\"").Replace("\"450 W/m2K\"", "\"1e9 W/m2K\"")
+            .Replace("\"120 t/h\"", "\"1e12 t/h\"");
+        using var plant = new TestPlant().WithFixture("wide-artefacts.csv").WithConfig("{ \"files\": [\"*.csv\"] }", x);
+        var ex = Assert.Throws<ConfigurationException>(() => PlantConfigurationReader.Load(plant.ConfigPath));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].area" && e.Message.Contains("at most 100000 m2", StringComparison.Ordinal));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean.u" && e.Message.Contains("at most 20000 W/m2K", StringComparison.Ordinal));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].hot.designFlow" && e.Message.Contains("at most", StringComparison.Ordinal));
+    }
 }
