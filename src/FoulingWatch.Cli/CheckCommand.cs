@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Text.Json;
 using FoulingWatch.Ingest.Configuration;
 using FoulingWatch.Ingest.Historian;
@@ -26,11 +27,14 @@ public static class CheckCommand
                     values = ResultWriter.Ledger(ingest.ExchangerLedger(x)),
                     tags = x.Tags().Select(t => t.Tag).Distinct().Select(t => new { tag = t, ledger = ResultWriter.Ledger(ingest.TagLedgers[t]) }),
                 }),
+                unusable = Unusable(config, ingest),
             }, ResultWriter.Json));
-            return FoulingWatchCommand.Success;
+            return Unusable(config, ingest).Count == 0 ? FoulingWatchCommand.Success : FoulingWatchCommand.DataError;
         }
         output.WriteLine($"Configuration {Path.GetFileName(configPath)}: valid; site {config.Site.Name}, {config.Exchangers.Count} exchanger(s).");
         foreach (var w in Warnings(config, File.ReadAllLines(configPath), ingest)) output.WriteLine("warning: " + w);
+        var unusable = Unusable(config, ingest);
+        foreach (var u in unusable) output.WriteLine("error: " + u);
         output.WriteLine($"Grid: {ingest.IntervalCount} intervals of {ingest.Interval.TotalMinutes:0.#} min from {ingest.GridStart:yyyy-MM-dd HH:mm} UTC.");
         output.WriteLine();
         var files = new TextTable("file", "encoding", "delim", "decimal", "header line", "unit rows", "data rows", "DST repeated hr");
@@ -53,11 +57,38 @@ public static class CheckCommand
             foreach (var e in x.Tags().SelectMany(r => ingest.TagLedgers[r.Tag].Examples).Distinct().Take(6)) output.WriteLine("  " + e);
             output.WriteLine();
         }
-        return FoulingWatchCommand.Success;
+        if (unusable.Count > 0)
+            output.WriteLine($"Some tags have no usable value (see the errors at the top); exit code {FoulingWatchCommand.DataError}.");
+        return unusable.Count == 0 ? FoulingWatchCommand.Success : FoulingWatchCommand.DataError;
+    }
+
+    /// <summary>Configured tags that were read but of which no value can be used, each with why and what to change
+    /// (check then ends with the data-error code: an analysis of them would have nothing to work on).</summary>
+    public static List<string> Unusable(PlantConfiguration config, IngestResult ingest)
+    {
+        var zone = config.Site.TimeZone;
+        string Day(DateTimeOffset? t) => t is { } v ? TimeZoneInfo.ConvertTime(v, zone).ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) : "…";
+        var window = $"data.window ({Day(config.Data.WindowStart)} to {Day(config.Data.WindowEnd)})";
+        var groups = new SortedDictionary<string, List<string>>(StringComparer.Ordinal);
+        foreach (var tag in config.Exchangers.SelectMany(x => x.Tags()).Select(t => t.Tag).Distinct(StringComparer.Ordinal))
+        {
+            if (!ingest.TagLedgers.TryGetValue(tag, out var l) || l.Read == 0 || l.Used > 0) continue;
+            var top = RejectReasons.All.MaxBy(r => l.Rejected[(int)r]);
+            var why = top switch
+            {
+                RejectReason.BadTimestamp when l.Rejected[(int)top] == l.Read => "every value has an unreadable timestamp; set the source's timestamp.format.",
+                RejectReason.OutsideWindow when l.Rejected[(int)top] == l.Read => $"every value lies outside {window}; move or remove the window.",
+                _ => $"no value is usable (most are {top.Key()}); see the examples below.",
+            };
+            if (!groups.TryGetValue(why, out var list)) groups[why] = list = [];
+            list.Add(tag);
+        }
+        return groups.Select(g => $"{string.Join(", ", g.Value.Take(6))}{(g.Value.Count > 6 ? $" and {g.Value.Count - 6} more" : "")}" +
+            $" ({g.Value.Count} tag{(g.Value.Count == 1 ? "" : "s")}): {g.Key}").ToList();
     }
 
     /// <summary>What the configuration still lacks for the whole job, each with its key: open CHECK marks, missing limits,
-    /// cleaning costs and pricing, and files whose every timestamp was refused.</summary>
+    /// cleaning costs and pricing (tags with no usable value are errors: <see cref="Unusable"/>).</summary>
     public static IEnumerable<string> Warnings(PlantConfiguration config, IReadOnlyList<string> lines, IngestResult ingest)
     {
         var marks = lines.Select((l, i) => (Line: i + 1, Text: l)).Where(l => l.Text.Contains("CHECK", StringComparison.Ordinal)).ToList();
@@ -76,7 +107,5 @@ public static class CheckCommand
             if (!priced)
                 yield return $"economics.fuelPrice: {x.Id} is not priced; give economics.fuelPrice and economics.heaterEfficiency (or lostCoolingCost for a cooler).";
         }
-        foreach (var tag in ingest.TagLedgers.Values.Where(l => l.Read > 0 && l.Rejected[(int)RejectReason.BadTimestamp] == l.Read))
-            yield return $"{tag.Tag}: every one of its {tag.Read:N0} values has an unreadable timestamp; set the source's timestamp.format.";
     }
 }

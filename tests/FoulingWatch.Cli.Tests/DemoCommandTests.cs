@@ -288,6 +288,23 @@ public class CheckWarningTests
     }
 }
 
+public class CheckUnusableDataTests
+{
+    // An analysis window beside the data left every value outside it, and check still said "valid" with exit 0.
+    [Fact]
+    public void A_window_outside_the_data_is_a_data_error_naming_the_window()
+    {
+        using var plant = new SamplePlantCopy();
+        var text = File.ReadAllText(plant.ConfigPath).Replace("\"maxGap\": \"30 min\",",
+            "\"maxGap\": \"30 min\", \"window\": { \"start\": \"2030-01-01\", \"end\": \"2030-06-01\" },");
+        File.WriteAllText(plant.ConfigPath, text);
+        var (code, output, _) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
+        Assert.Equal(2, code);
+        var error = Assert.Single(output.Split('\n'), l => l.StartsWith("error: ", StringComparison.Ordinal)).TrimEnd('\r');
+        Assert.EndsWith("(36 tags): every value lies outside data.window (2030-01-01 to 2030-06-01); move or remove the window.", error);
+    }
+}
+
 public class ConsoleWidthTests
 {
     // The console summary and plan fit a 120-column terminal: no line longer than 120 characters.
