@@ -195,7 +195,7 @@ public static class BackCalculator
         if (x.Clean is DatasheetCleanReference d)
         {
             FilmPropertyScaling? Scaling(StreamConfiguration side, double? bulk, double n) =>
-                bulk is { } t && side.Fluid is Core.FluidModels.IapwsWater water ? new FilmPropertyScaling(water, side.PressurePascals, t, n) : null;
+                bulk is { } t && side.Fluid is Core.FluidModels.ITransportFluid fluid ? new FilmPropertyScaling(fluid, side.PressurePascals, t, n) : null;
             var model = new DatasheetCleanU(d, tubePhase, shellPhase, Scaling(x.Tube, d.TubeBulkTemperature, d.TubeExponent),
                 Scaling(x.Shell, d.ShellBulkTemperature, d.ShellExponent));
             return (model, new CleanReferenceReport("datasheet", model.Description, null, 0, null, null, null));

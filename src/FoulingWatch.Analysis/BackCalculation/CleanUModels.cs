@@ -27,12 +27,12 @@ public interface ICleanUModel
 /// </remarks>
 public sealed class FilmPropertyScaling
 {
-    private readonly IapwsWater _water;
+    private readonly ITransportFluid _fluid;
     private readonly double _pressure, _exponent, _design;
 
-    public FilmPropertyScaling(IapwsWater water, double pressure, double designBulk, double flowExponent)
+    public FilmPropertyScaling(ITransportFluid fluid, double pressure, double designBulk, double flowExponent)
     {
-        (_water, _pressure, _exponent, DesignBulk) = (water, pressure, flowExponent, designBulk);
+        (_fluid, _pressure, _exponent, DesignBulk) = (fluid, pressure, flowExponent, designBulk);
         _design = Group(designBulk);
     }
 
@@ -42,8 +42,8 @@ public sealed class FilmPropertyScaling
     {
         var t = Temperature.FromKelvin(bulk);
         var p = new Pressure(_pressure);
-        return Math.Pow(_water.Viscosity(t, p), _exponent - 0.4) * Math.Pow(_water.SpecificHeat(t, p), -0.4)
-               * Math.Pow(_water.ThermalConductivity(t, p), -0.6);
+        return Math.Pow(_fluid.Viscosity(t, p), _exponent - 0.4) * Math.Pow(_fluid.SpecificHeat(t, p), -0.4)
+               * Math.Pow(_fluid.ThermalConductivity(t, p), -0.6);
     }
 
     /// <summary>(1/h at the bulk temperature) / (1/h at the design bulk temperature), same mass flow; 1 when the bulk
@@ -86,8 +86,8 @@ public sealed class DatasheetCleanU : ICleanUModel
         Description = string.Create(System.Globalization.CultureInfo.InvariantCulture,
             $"datasheet: U = {reference.CleanU:0.#} W/m2K ± {reference.RelativeUncertainty:P0} at design flows, tube share " +
             $"{reference.TubeShare:P0} with n = {_nTube:0.##}, shell n = {_nShell:0.##}, wall {reference.WallResistance:G3} m2K/W") +
-            (tubeScaling is null ? "" : FormattableString.Invariant($"; tube film scaled with water properties from {tubeScaling.DesignBulk - 273.15:0.#} °C")) +
-            (shellScaling is null ? "" : FormattableString.Invariant($"; shell film scaled with water properties from {shellScaling.DesignBulk - 273.15:0.#} °C"));
+            (tubeScaling is null ? "" : FormattableString.Invariant($"; tube film scaled with fluid properties from {tubeScaling.DesignBulk - 273.15:0.#} °C")) +
+            (shellScaling is null ? "" : FormattableString.Invariant($"; shell film scaled with fluid properties from {shellScaling.DesignBulk - 273.15:0.#} °C"));
     }
 
     public string Description { get; }

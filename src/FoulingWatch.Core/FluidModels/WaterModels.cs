@@ -4,7 +4,7 @@ namespace FoulingWatch.Core.FluidModels;
 
 /// <summary>Single-phase water or steam by IAPWS-IF97: region 1 below the saturation temperature at the stream pressure, region 2 above it.</summary>
 /// <remarks>A stream whose two temperatures lie on opposite sides of saturation changes phase: use <see cref="SteamPhaseChange"/>.</remarks>
-public sealed class IapwsWater : IFluidModel
+public sealed class IapwsWater : ITransportFluid
 {
     public string Description => "water/steam, IAPWS-IF97 regions 1 and 2";
     public TemperatureRange Validity { get; } = new(IapwsIf97.MinimumTemperature, IapwsIf97.Region2MaximumTemperature);

@@ -22,6 +22,7 @@ public enum Dimension
     ThermalConductivity,
     Velocity,
     Duration,
+    KinematicViscosity,
 }
 
 /// <summary>An affine map from a unit to SI: si = value × Scale + Offset. Resolve once per column, apply per value.</summary>
@@ -142,6 +143,7 @@ public static class UnitCatalog
         Dimension.ThermalConductivity => "45 W/mK",
         Dimension.Velocity => "1.5 m/s",
         Dimension.Duration => "3 d",
+        Dimension.KinematicViscosity => "32 cSt",
         _ => "1 unit",
     };
 
@@ -258,6 +260,9 @@ public static class UnitCatalog
 
         Add(Dimension.ThermalConductivity, 1.0, 0.0, "W/mK", "W/m/K");
         Add(Dimension.ThermalConductivity, Btu / (Hour * Foot * FahrenheitDegree), 0.0, "Btu/h ft degF", "Btu/hftF");
+
+        Add(Dimension.KinematicViscosity, 1.0, 0.0, "m2/s");
+        Add(Dimension.KinematicViscosity, 1e-6, 0.0, "mm2/s", "cSt", "centistokes");
 
         Add(Dimension.Velocity, 1.0, 0.0, "m/s");
         Add(Dimension.Velocity, Foot, 0.0, "ft/s");

@@ -497,14 +497,15 @@ public static class PlantConfigurationReader
     }
 
     /// <summary>A side's design bulk temperature, for scaling its film with the fluid's properties: only fluids with
-    /// viscosity and thermal conductivity (water) can be scaled.</summary>
+    /// viscosity and thermal conductivity (water, a petroleum liquid with its viscosity) can be scaled.</summary>
     private static double? BulkTemperature(JsonNode n, string key, StreamConfiguration? side)
     {
         if (!n.Has(key)) return null;
         var t = n.Quantity(key, Dimension.Temperature, minSi: 253.15, maxSi: 573.15);
-        if (t is not null && side is not null && side.Fluid is not Core.FluidModels.IapwsWater)
+        if (t is not null && side is not null && side.Fluid is not Core.FluidModels.ITransportFluid)
         {
-            n.Error(key, $"scales the film with the fluid's viscosity and conductivity, which only the \"water\" model has so far ({side.Fluid.Description} has not); leave it out for this side.");
+            n.Error(key, $"scales the film with the fluid's viscosity and conductivity, which {side.Fluid.Description} does not have: use the \"water\" model, " +
+                "give a petroleum liquid its viscosity at two temperatures, or leave this key out for this side.");
             return null;
         }
         return t;
@@ -647,6 +648,8 @@ public static class PlantConfigurationReader
                     var k = n.Number("watsonK", required: true, min: 9, max: 14);
                     if (api is null == sg is null) n.ErrorHere("give either api (API gravity) or sg (specific gravity 60/60 °F), one of them.");
                     else if (k is not null) result = api is not null ? KeslerLeePetroleumLiquid.FromApiGravity(api.Value, k.Value) : new KeslerLeePetroleumLiquid(sg!.Value, k.Value);
+                    if (n.Has("viscosity") && ReadViscosity(n) is { } walther && result is KeslerLeePetroleumLiquid liquid)
+                        result = new PetroleumLiquidTransport(liquid, liquid.SpecificGravity, walther);
                     break;
                 }
                 case "condensing-steam":
@@ -671,9 +674,26 @@ public static class PlantConfigurationReader
         }
         catch (QuantityOutOfRangeException ex) { n.ErrorHere(ex.Message); }
         catch (ArgumentException ex) { n.ErrorHere(ex.Message); }
-        n.Allow("name", "pressure", "saturationBand", "api", "sg", "watsonK", "cp", "coefficients", "cpUnit", "temperatureUnit", "points");
+        n.Allow("name", "pressure", "saturationBand", "api", "sg", "watsonK", "cp", "coefficients", "cpUnit", "temperatureUnit", "points", "viscosity");
         n.Done();
         return result;
+    }
+
+    /// <summary>A petroleum liquid's kinematic viscosity at two temperatures (an assay's, e.g. at 40 and 100 °C), for
+    /// ASTM D341's Walther relation.</summary>
+    private static WaltherViscosity? ReadViscosity(JsonNode n)
+    {
+        var points = new List<(double T, double Nu)>();
+        foreach (var (e, path) in n.Array("viscosity"))
+        {
+            if (e.ValueKind != JsonValueKind.Array || e.GetArrayLength() != 2) { n.ErrorAt(path, "must be a pair [\"40 degC\", \"9.5 cSt\"]."); continue; }
+            var t = n.ParseQuantity($"{path}[0]", e[0], Dimension.Temperature, minSi: 200, maxSi: 800);
+            var nu = n.ParseQuantity($"{path}[1]", e[1], Dimension.KinematicViscosity, minSi: 1e-7, maxSi: 0.1);
+            if (t is not null && nu is not null) points.Add((t.Value, nu.Value));
+        }
+        if (points.Count != 2) { n.Error("viscosity", "needs exactly two points [temperature, kinematic viscosity], e.g. at 40 and 100 °C."); return null; }
+        try { return new WaltherViscosity(points[0].T, points[0].Nu, points[1].T, points[1].Nu); }
+        catch (ArgumentException) { n.Error("viscosity", "needs two different temperatures with the lower viscosity at the higher one."); return null; }
     }
 
     private static TagReference? ReadTag(JsonNode? n, Dimension dimension, double atmosphere, double defaultMin, double defaultMax)

@@ -10,19 +10,31 @@ using Xunit.Abstractions;
 namespace FoulingWatch.Analysis.Tests.BackCalculation;
 
 /// <summary>A cooling-water cooler through a year: the water inlet swings ±6 K with the season, which moves the tube
-/// film by a tenth at the same flow. Synthetic (not an external check): the export is made with the tube film scaled
-/// by the water's properties; the external checks of the properties themselves are in WaterTransportTests.</summary>
+/// film by a tenth at the same flow; and a crude preheater whose crude inlet swings ±15 K with the upstream train.
+/// Synthetic (not an external check): the export is made with the tube film scaled by the fluid's properties; the
+/// external checks of the properties themselves are in WaterTransportTests and PetroleumTransportTests.</summary>
 public class PropertyScalingTests(ITestOutputHelper output)
 {
     private const double Area = 90, DesignCold = 40, DesignHot = 30, U = 600, CpHot = 2100;
 
-    private static (string Dir, Func<double, double> TrueRf) Write(bool scaled)
+    /// <summary>The tube-side fluid of a case, its configuration, inlet temperature (mean, seasonal swing), design bulk
+    /// temperature and hot inlet, °C.</summary>
+    private sealed record Case(ITransportFluid Fluid, string Json, double Inlet, double Swing, double DesignBulk, double HotInlet);
+
+    private static readonly Case Water = new(new IapwsWater(), "{ \"model\": \"water\" }", 25, 6, 30, 90);
+
+    private static readonly Case Crude = new(new PetroleumLiquidTransport(new KeslerLeePetroleumLiquid(0.85, 11.8), 0.85,
+            new WaltherViscosity(313.15, 9e-6, 373.15, 2.6e-6)),
+        "{ \"model\": \"petroleum\", \"sg\": 0.85, \"watsonK\": 11.8, \"viscosity\": [[\"40 degC\", \"9 cSt\"], [\"100 degC\", \"2.6 cSt\"]] }",
+        120, 15, 125, 250);
+
+    private static (string Dir, Func<double, double> TrueRf) Write(bool scaled, Case c)
     {
         var dir = Path.Combine(Path.GetTempPath(), "fw-props", Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(dir);
-        var water = new IapwsWater();
+        var water = c.Fluid;
         var p = 3e5;
-        var scaling = new FilmPropertyScaling(water, p, 303.15, 0.8);
+        var scaling = new FilmPropertyScaling(water, p, c.DesignBulk + 273.15, 0.8);
         double Rf(double d) => 2e-5 + 3e-7 * d;
         var csv = new StringBuilder("Timestamp,FH,TH1,TH2,FC,TC1,TC2\n");
         var start = new DateTimeOffset(2026, 1, 1, 0, 0, 0, TimeSpan.Zero);
@@ -31,8 +43,8 @@ public class PropertyScalingTests(ITestOutputHelper output)
             var d = h / 24.0;
             var mh = DesignHot * (1 + 0.1 * Math.Sin(2 * Math.PI * d / 5.3));
             var mc = DesignCold * (1 + 0.1 * Math.Sin(2 * Math.PI * d / 3.1 + 1));
-            var tci = 25 - 6 * Math.Cos(2 * Math.PI * (d - 15) / 365);
-            var thi = 90 + 2 * Math.Sin(2 * Math.PI * d / 11);
+            var tci = c.Inlet - c.Swing * Math.Cos(2 * Math.PI * (d - 15) / 365);
+            var thi = c.HotInlet + 2 * Math.Sin(2 * Math.PI * d / 11);
             var tco = tci + 5;
             RatingResult r = default;
             for (var it = 0; it < 4; it++)
@@ -46,7 +58,7 @@ public class PropertyScalingTests(ITestOutputHelper output)
             csv.Append(FormattableString.Invariant($"{start.AddHours(h):yyyy-MM-ddTHH:mm:ssZ},{mh:R},{thi:R},{r.HotOutlet.Celsius:R},{mc:R},{tci:R},{tco:R}\n"));
         }
         File.WriteAllText(Path.Combine(dir, "export.csv"), csv.ToString());
-        var bulk = scaled ? ", \"tubeBulkTemperature\": \"30 degC\"" : "";
+        var bulk = scaled ? FormattableString.Invariant($", \"tubeBulkTemperature\": \"{c.DesignBulk} degC\"") : "";
         File.WriteAllText(Path.Combine(dir, "plant.json"), $$"""
             {
               "site": { "name": "Curlew Flats (fictional)", "timeZone": "UTC" },
@@ -55,7 +67,7 @@ public class PropertyScalingTests(ITestOutputHelper output)
                 "id": "CW-1", "arrangement": "counterflow", "area": "{{Area}} m2",
                 "hot":  { "side": "shell", "fluid": { "model": "constant-cp", "cp": "{{CpHot}} J/kgK" }, "flow": { "tag": "FH", "unit": "kg/s" },
                           "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" }, "designFlow": "{{DesignHot}} kg/s" },
-                "cold": { "side": "tube", "fluid": { "model": "water" }, "pressure": "3 bar", "flow": { "tag": "FC", "unit": "kg/s" },
+                "cold": { "side": "tube", "fluid": {{c.Json}}, "pressure": "3 bar", "flow": { "tag": "FC", "unit": "kg/s" },
                           "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "{{DesignCold}} kg/s" },
                 "clean": { "method": "datasheet", "u": "{{U}} W/m2K", "tubeShare": "50 %"{{bulk}} },
                 "maintenance": [ { "date": "2026-01-01", "action": "cleaned" } ]
@@ -66,9 +78,9 @@ public class PropertyScalingTests(ITestOutputHelper output)
     }
 
     /// <summary>Root-mean-square error of the usable samples' Rf against the truth, m²K/W.</summary>
-    private static double RmsError(bool scaled)
+    private static double RmsError(bool scaled, Case c)
     {
-        var (dir, rf) = Write(scaled);
+        var (dir, rf) = Write(scaled, c);
         try
         {
             var history = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0].History;
@@ -84,10 +96,16 @@ public class PropertyScalingTests(ITestOutputHelper output)
     // Without the property scaling the seasonal swing of the tube film reads as fouling that comes and goes; with the
     // design bulk temperature given, the clean U follows the water's viscosity and conductivity and the error is small.
     [Fact]
-    public void Scaling_the_water_film_with_its_properties_removes_the_seasonal_false_fouling()
+    public void Scaling_the_water_film_with_its_properties_removes_the_seasonal_false_fouling() => Check(Water);
+
+    // The same for a crude: its viscosity (ASTM D341 from two assay points) moves the film far more than water's.
+    [Fact]
+    public void Scaling_a_crude_film_with_its_assay_viscosity_removes_the_false_fouling_of_inlet_swings() => Check(Crude);
+
+    private void Check(Case c)
     {
-        var flowOnly = RmsError(scaled: false);
-        var withProperties = RmsError(scaled: true);
+        var flowOnly = RmsError(scaled: false, c);
+        var withProperties = RmsError(scaled: true, c);
         output.WriteLine(FormattableString.Invariant($"RMS error of Rf: flow scaling only {flowOnly:G3}, with property scaling {withProperties:G3} m2K/W"));
         Assert.True(flowOnly > 2e-5, $"the seasonal effect should show without the scaling ({flowOnly:G3})");
         Assert.True(withProperties < 0.2 * flowOnly, $"with the scaling {withProperties:G3} against {flowOnly:G3}");

@@ -59,14 +59,26 @@ public class PlantConfigurationReaderTests
         Assert.Equal("250 has no unit; every number carries its unit, e.g. \"250 m2\".", e.Message);
     }
 
-    // Property scaling needs the fluid's viscosity and conductivity: asked of a petroleum side, it is refused with the key.
+    // Property scaling needs the fluid's viscosity and conductivity: asked of a constant-cp side, it is refused with the key.
     [Fact]
     public void A_bulk_temperature_for_a_fluid_without_transport_properties_is_refused()
     {
         var ex = Fails(TestPlant.Interchanger().Replace("\"u\": \"450 W/m2K\"", "\"u\": \"450 W/m2K\", \"tubeBulkTemperature\": \"120 degC\""));
         var e = Assert.Single(ex.Errors);
         Assert.Equal("exchangers[0].clean.tubeBulkTemperature", e.Path);
-        Assert.StartsWith("scales the film with the fluid's viscosity and conductivity, which only the \"water\" model has so far", e.Message);
+        Assert.StartsWith("scales the film with the fluid's viscosity and conductivity, which constant cp", e.Message);
+        Assert.Contains("does not have: use the \"water\" model, give a petroleum liquid its viscosity at two temperatures", e.Message);
+    }
+
+    // A petroleum liquid's viscosity needs two points with the lower viscosity at the higher temperature.
+    [Fact]
+    public void A_petroleum_viscosity_that_rises_with_temperature_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger().Replace("\"watsonK\": 11.9 }",
+            "\"watsonK\": 11.9, \"viscosity\": [[\"40 degC\", \"3 cSt\"], [\"100 degC\", \"9 cSt\"]] }"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].hot.fluid.viscosity", e.Path);
+        Assert.Equal("needs two different temperatures with the lower viscosity at the higher one.", e.Message);
     }
 
     [Fact]
