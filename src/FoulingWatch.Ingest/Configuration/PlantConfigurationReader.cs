@@ -496,6 +496,32 @@ public static class PlantConfigurationReader
         return re is null || pr is null || energy is null ? null : new ThresholdSettings(re.Value, pr.Value, energy.Value, rise);
     }
 
+    /// <summary>
+    /// The tube share from the datasheet's film coefficients at design (hTube, hShell; a tube-side coefficient referred
+    /// to the inside surface is referred to the exchanger area by tubeDiameterRatio = Do/Di): share = (Do/Di)/hTube over
+    /// 1/hShell + (Do/Di)/hTube. The films must add up, with the wall, to the clean 1/U within 15 %, else the U or a
+    /// coefficient is not the clean one (a service U with fouling allowance, say) and the values are refused.
+    /// </summary>
+    private static double? FilmShare(JsonNode n, double u, double wall)
+    {
+        if (!n.Has("hTube") && !n.Has("hShell")) return null;
+        if (n.Has("tubeShare")) n.ErrorHere("give either tubeShare or the film coefficients hTube and hShell, not both.");
+        var ht = n.Quantity("hTube", Dimension.HeatTransferCoefficient, required: true, minSi: 10, maxSi: 1e5);
+        var hs = n.Quantity("hShell", Dimension.HeatTransferCoefficient, required: true, minSi: 10, maxSi: 1e5);
+        var ratio = n.Number("tubeDiameterRatio", min: 1, max: 2) ?? 1;
+        if (ht is null || hs is null) return null;
+        var films = ratio / ht.Value + 1 / hs.Value;
+        var clean = 1 / u - wall;
+        if (Math.Abs(films - clean) > 0.15 * clean)
+        {
+            n.ErrorHere(FormattableString.Invariant(
+                $"the film coefficients and the clean U disagree: 1/hShell + (Do/Di)/hTube = {films:G3} m2K/W but 1/U − wall = {clean:G3} m2K/W ") +
+                "(more than 15 % apart); give the clean U (no fouling allowance) and coefficients referred as stated (tubeDiameterRatio for an inside hTube).");
+            return null;
+        }
+        return ratio / ht.Value / films;
+    }
+
     /// <summary>A side's design bulk temperature, for scaling its film with the fluid's properties: only fluids with
     /// viscosity and thermal conductivity (water, a petroleum liquid with its viscosity) can be scaled.</summary>
     private static double? BulkTemperature(JsonNode n, string key, StreamConfiguration? side)
@@ -530,6 +556,7 @@ public static class PlantConfigurationReader
                 if (tube?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the tube-side stream ({(tube == hot ? "hot" : "cold")}.designFlow).");
                 if (shell?.DesignFlow is null) n.ErrorHere($"the datasheet method needs designFlow on the shell-side stream ({(shell == hot ? "hot" : "cold")}.designFlow).");
                 if (u is not null && wall >= 1 / u.Value) n.Error("wallResistance", "is as large as the whole clean resistance 1/U; check the value.");
+                else if (u is not null && FilmShare(n, u.Value, wall) is { } fromFilms) share = fromFilms;
                 var tubeBulk = BulkTemperature(n, "tubeBulkTemperature", tube);
                 var shellBulk = BulkTemperature(n, "shellBulkTemperature", shell);
                 if (u is not null && tube?.DesignFlow is not null && shell?.DesignFlow is not null && wall < 1 / u.Value)

@@ -70,6 +70,27 @@ public class PlantConfigurationReaderTests
         Assert.Contains("does not have: use the \"water\" model, give a petroleum liquid its viscosity at two temperatures", e.Message);
     }
 
+    // Film coefficients from the datasheet set the tube share: 1/U = 1/h_o + R_w + (D_o/D_i)/h_i (series resistances
+    // referred to the outside area, analytic). U 600, h_shell 1500, inside h_tube 1200 with D_o/D_i = 1.2:
+    // 1/1500 + 1.2/1200 = 1/600 exactly, so the tube share is (1.2/1200)/(1/600) = 0.6.
+    [Fact]
+    public void Datasheet_film_coefficients_set_the_tube_share_and_must_add_up_to_the_clean_U()
+    {
+        var films = "\"u\": \"600 W/m2K\", \"hTube\": \"1200 W/m2K\", \"hShell\": \"1500 W/m2K\", \"tubeDiameterRatio\": 1.2";
+        using (var plant = new TestPlant().WithFixture("wide-artefacts.csv")
+                   .WithConfig("{ \"files\": [\"*.csv\"] }", TestPlant.Interchanger().Replace("\"u\": \"450 W/m2K\"", films)))
+        {
+            var d = Assert.IsType<DatasheetCleanReference>(PlantConfigurationReader.Load(plant.ConfigPath).Exchangers[0].Clean);
+            Assert.Equal(0.6, d.TubeShare, 12);
+            Assert.Equal(600, d.CleanU);
+        }
+        // a service U (with a fouling allowance) against clean films: 1/450 is 33 % above the films' 1/600
+        var ex = Fails(TestPlant.Interchanger().Replace("\"u\": \"450 W/m2K\"", films.Replace("600 W/m2K", "450 W/m2K")));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].clean", e.Path);
+        Assert.StartsWith("the film coefficients and the clean U disagree: 1/hShell + (Do/Di)/hTube = 0.00167 m2K/W but 1/U − wall = 0.00222 m2K/W", e.Message);
+    }
+
     // A petroleum liquid's viscosity needs two points with the lower viscosity at the higher temperature.
     [Fact]
     public void A_petroleum_viscosity_that_rises_with_temperature_is_refused()
