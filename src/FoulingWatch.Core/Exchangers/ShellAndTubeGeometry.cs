@@ -1,0 +1,74 @@
+using FoulingWatch.Core.FluidModels;
+using FoulingWatch.Core.Quantities;
+
+namespace FoulingWatch.Core.Exchangers;
+
+public enum TubeLayout { Triangular, Square, RotatedSquare }
+
+/// <summary>TEMA-style geometry of a segmentally baffled shell-and-tube exchanger (SI: m, W/(m·K)).</summary>
+/// <param name="TubeLength">Effective length of one tube (one pass).</param>
+/// <param name="TubeCount">Tubes in the shell (each of the passes holds TubeCount / TubePasses).</param>
+/// <param name="TubePitch">Centre-to-centre distance of neighbouring tubes.</param>
+/// <param name="BaffleSpacing">Central baffle spacing.</param>
+/// <param name="WallConductivity">Thermal conductivity of the tube material.</param>
+public sealed record ShellAndTubeGeometry(double ShellDiameter, double TubeOuterDiameter, double TubeInnerDiameter, double TubeLength,
+    int TubeCount, double TubePitch, TubeLayout Layout, int TubePasses, double BaffleSpacing, double WallConductivity)
+{
+    /// <summary>Heat-transfer surface on the outside of the tubes, N·π·Do·L.</summary>
+    public double OutsideArea => TubeCount * Math.PI * TubeOuterDiameter * TubeLength;
+
+    /// <summary>Flow area of one tube pass.</summary>
+    public double TubeFlowArea => (double)TubeCount / TubePasses * Math.PI * TubeInnerDiameter * TubeInnerDiameter / 4;
+
+    /// <summary>Kern's cross-flow area at the shell's centre line, Ds·(Pt − Do)·B/Pt.</summary>
+    public double ShellCrossFlowArea => ShellDiameter * (TubePitch - TubeOuterDiameter) * BaffleSpacing / TubePitch;
+
+    /// <summary>Kern's equivalent diameter: 4·(free area of a pitch cell)/(wetted perimeter in it); square and rotated
+    /// square 4(Pt² − πDo²/4)/(πDo), triangular 4(√3/4·Pt² − πDo²/8)/(πDo/2).</summary>
+    public double EquivalentDiameter => Layout == TubeLayout.Triangular
+        ? 4 * (Math.Sqrt(3) / 4 * TubePitch * TubePitch - Math.PI * TubeOuterDiameter * TubeOuterDiameter / 8) / (Math.PI * TubeOuterDiameter / 2)
+        : 4 * (TubePitch * TubePitch - Math.PI * TubeOuterDiameter * TubeOuterDiameter / 4) / (Math.PI * TubeOuterDiameter);
+
+    /// <summary>Conduction through the tube wall referred to the outside surface, Do·ln(Do/Di)/(2·k_w).</summary>
+    public double WallResistance => TubeOuterDiameter * Math.Log(TubeOuterDiameter / TubeInnerDiameter) / (2 * WallConductivity);
+
+    /// <summary>Tubes a shell of this diameter can hold, CTP·(π/4)·Ds²/(CL·Pt²): CL = 0.866 for a triangular layout and 1
+    /// for square ones, CTP = 0.93, 0.90 and 0.85 for one, two and more tube passes (Taborek's tube-count estimate; from
+    /// memory).</summary>
+    public double TubeCapacity
+    {
+        get
+        {
+            var cl = Layout == TubeLayout.Triangular ? 0.866 : 1.0;
+            var ctp = TubePasses == 1 ? 0.93 : TubePasses == 2 ? 0.90 : 0.85;
+            return ctp * Math.PI / 4 * ShellDiameter * ShellDiameter / (cl * TubePitch * TubePitch);
+        }
+    }
+
+    /// <summary>Tube-side film (W/(m²·K), on the inside surface) at a mass flow (kg/s) and the fluid's state.</summary>
+    public double TubeFilm(double massFlow, ITransportFluid fluid, Temperature bulk, Pressure pressure, out double reynolds)
+    {
+        var (mu, k, pr) = Transport(fluid, bulk, pressure);
+        reynolds = massFlow / TubeFlowArea * TubeInnerDiameter / mu;
+        return FilmCorrelations.TubeSide(reynolds, pr, TubeInnerDiameter / TubeLength) * k / TubeInnerDiameter;
+    }
+
+    /// <summary>Shell-side film (W/(m²·K)) by Kern at a mass flow (kg/s) and the fluid's state.</summary>
+    public double ShellFilm(double massFlow, ITransportFluid fluid, Temperature bulk, Pressure pressure, out double reynolds)
+    {
+        var (mu, k, pr) = Transport(fluid, bulk, pressure);
+        reynolds = massFlow / ShellCrossFlowArea * EquivalentDiameter / mu;
+        return FilmCorrelations.Kern(reynolds, pr) * k / EquivalentDiameter;
+    }
+
+    /// <summary>Clean U referred to the outside surface: 1/U = 1/h_o + R_wall + (Do/Di)/h_i.</summary>
+    public double CleanU(double hTube, double hShell) =>
+        1 / (1 / hShell + WallResistance + TubeOuterDiameter / TubeInnerDiameter / hTube);
+
+    private static (double Mu, double K, double Pr) Transport(ITransportFluid fluid, Temperature t, Pressure p)
+    {
+        var mu = fluid.Viscosity(t, p);
+        var k = fluid.ThermalConductivity(t, p);
+        return (mu, k, fluid.SpecificHeat(t, p) * mu / k);
+    }
+}
