@@ -1,3 +1,4 @@
+using FoulingWatch.Core.Exchangers;
 using FoulingWatch.Core.FluidModels;
 using FoulingWatch.Core.Quantities;
 using FoulingWatch.Core.Uncertainty;
@@ -148,4 +149,35 @@ public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube,
         for (var j = 0; j < 3; j++) v += g[i] * covariance[i, j] * g[j];
         return Math.Sqrt(Math.Max(0, v));
     }
+}
+
+/// <summary>
+/// Clean U from the bundle's geometry and both fluids' properties at each interval's flows and bulk temperatures:
+/// tube side Gnielinski (Hausen when laminar), shell side Kern, wall conduction (<see cref="ShellAndTubeGeometry"/>).
+/// Outside a correlation's range the clean U is undefined (NaN) and the sample says so.
+/// </summary>
+public sealed class GeometryCleanU(GeometryCleanReference reference, ITransportFluid tubeFluid, double tubePressure,
+    ITransportFluid shellFluid, double shellPressure) : ICleanUModel
+{
+    private readonly ShellAndTubeGeometry _g = reference.Geometry;
+
+    public string Description { get; } = FormattableString.Invariant(
+        $"geometry: {reference.Geometry.TubeCount} tubes {reference.Geometry.TubeOuterDiameter * 1000:0.##}/{reference.Geometry.TubeInnerDiameter * 1000:0.##} mm × ") +
+        FormattableString.Invariant($"{reference.Geometry.TubeLength:0.###} m, {reference.Geometry.TubePasses} pass(es), shell {reference.Geometry.ShellDiameter * 1000:0} mm; ") +
+        FormattableString.Invariant($"Gnielinski tube side, Kern shell side, wall {reference.Geometry.WallResistance:G3} m2K/W; ± {reference.RelativeUncertainty:P0} on 1/U");
+
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
+    {
+        if (!double.IsFinite(tubeBulk) || !double.IsFinite(shellBulk) || !(tubeFlow > 0) || !(shellFlow > 0)) return double.NaN;
+        try
+        {
+            var hi = _g.TubeFilm(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), new Pressure(tubePressure), out _);
+            var ho = _g.ShellFilm(shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), new Pressure(shellPressure), out _);
+            return _g.CleanU(hi, ho);
+        }
+        catch (QuantityOutOfRangeException) { return double.NaN; }
+    }
+
+    public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
+        reference.RelativeUncertainty / CleanU(tubeFlow, shellFlow, tubeBulk, shellBulk);
 }

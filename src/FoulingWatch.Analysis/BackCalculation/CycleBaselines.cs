@@ -46,7 +46,7 @@ public static class CycleBaselines
             var u = model.CleanU(tubeRef, shellRef);
             list.Add(new CycleBaseline(start, rows.Count, u, model.InverseSigma(tubeRef, shellRef) * u * u, null));
         }
-        return (list, Statement(list, x.Clean is DatasheetCleanReference ? reference : null, tubeRef, shellRef, zone));
+        return (list, Statement(list, x.Clean is BaselineCleanReference ? null : reference, tubeRef, shellRef, zone));
     }
 
     private static (double Tube, double Shell) ReferenceFlows(ExchangerConfiguration x, SampleEvaluation[] evaluations)
@@ -74,7 +74,8 @@ public static class CycleBaselines
             if (change < -Notable && a.CleanU.Value - b.CleanU.Value > 2 * sigma)
                 text += string.Create(inv, $". The clean U fell {-change:P0} from the cleaning of {SiteCalendar.Date(a.Start, zone)} to that of {SiteCalendar.Date(b.Start, zone)}: deposits the cleaning did not remove, or a change to the exchanger");
         }
-        if (datasheet is not null)
+        // (a reference that needs temperatures, the geometry method, gives no value at flows alone: no comparison)
+        if (datasheet is not null && datasheet.CleanU(tubeRef, shellRef) > 0)
         {
             var u = datasheet.CleanU(tubeRef, shellRef);
             var sheetSigma = datasheet.InverseSigma(tubeRef, shellRef) * u * u;

@@ -187,6 +187,9 @@ public sealed class SampleEvaluator
         if (!(e.UActual > 0)) return e;
         var (tubeBulk, shellBulk) = BulkTemperatures(used);
         var uc = clean.CleanU(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
+        if (!(uc > 0))
+            return e with { Status = SampleStatus.PropertyRange,
+                Detail = "the clean U is undefined at these flows and temperatures (a Reynolds or Prandtl number outside the film correlations' ranges)" };
         var terminals = TerminalTemperatures(used);
         var thi = T(terminals.HotIn);
         var tci = T(terminals.ColdIn);

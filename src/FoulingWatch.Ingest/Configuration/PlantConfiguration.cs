@@ -130,6 +130,17 @@ public sealed record DatasheetCleanReference(
     public const double DefaultUncertainty = 0.05;
 }
 
+/// <summary>Clean U from the exchanger's geometry and both fluids' properties at each interval's flows and bulk
+/// temperatures: tube side Gnielinski (Hausen when laminar), shell side Kern, tube-wall conduction.</summary>
+/// <param name="RelativeUncertainty">Standard uncertainty of 1/U_clean as a fraction of it (default 15 %).</param>
+public sealed record GeometryCleanReference(Core.Exchangers.ShellAndTubeGeometry Geometry, double RelativeUncertainty = GeometryCleanReference.DefaultUncertainty)
+    : CleanReference(0.8, 0.55)
+{
+    /// <summary>Default standard uncertainty of a clean U from correlations: 15 % (common practice, from memory:
+    /// Gnielinski is quoted within about ±10 % in its range, Kern's shell side within ±20–30 %).</summary>
+    public const double DefaultUncertainty = 0.15;
+}
+
 /// <summary>Clean U fitted (Wilson plot) from the first days of operation after a cleaning.</summary>
 /// <param name="Start">Start of the calibration period; null: the last logged cleaning, else the first data.</param>
 public sealed record BaselineCleanReference(TimeSpan Duration, DateTimeOffset? Start, double TubeExponent, double ShellExponent)

@@ -10,7 +10,7 @@ namespace FoulingWatch.Ingest.Configuration;
 
 /// <summary>Reads and validates a plant configuration file (JSON; comments and trailing commas allowed).</summary>
 /// <remarks>All problems are collected and reported together in one <see cref="ConfigurationException"/>, each with its JSON path.</remarks>
-public static class PlantConfigurationReader
+public static partial class PlantConfigurationReader
 {
     private static readonly JsonDocumentOptions JsonOptions = new()
     {
@@ -432,7 +432,7 @@ public static class PlantConfigurationReader
         if (basis is null) n.Error("dutyBasis", $"'{basisText}' is not a duty basis; use \"hot\", \"cold\", \"mean\" or \"reconciled\".");
         var balance = n.Fraction("balanceTolerance", min: 0.001, max: 1) ?? 0.10;
         var downtime = n.Fraction("downtimeFlowFraction", min: 0, max: 0.9) ?? 0.2;
-        var clean = ReadClean(n.Object("clean", required: true), site, hot, cold);
+        var clean = ReadClean(n.Object("clean", required: true), site, hot, cold, area);
         var limitsNode = n.Object("limits");
         var limits = new ExchangerLimits(
             limitsNode?.Quantity("foulingResistance", Dimension.FoulingResistance, minSi: 0, exclusiveMin: true),
@@ -537,7 +537,7 @@ public static class PlantConfigurationReader
         return t;
     }
 
-    private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold)
+    private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold, double? area)
     {
         if (n is null) return null;
         var method = n.String("method", required: true);
@@ -568,9 +568,13 @@ public static class PlantConfigurationReader
                 var start = ReadDate(n, "start", site);
                 result = new BaselineCleanReference(TimeSpan.FromSeconds(days), start, tubeN, shellN);
                 break;
+            case "geometry":
+                result = ReadGeometry(n, hot, cold, area);
+                break;
             case null: break;
             default:
-                n.Error("method", $"'{method}' is not a clean-U method; use \"datasheet\" (clean U at design flows) or \"baseline\" (fitted after a cleaning).");
+                n.Error("method", $"'{method}' is not a clean-U method; use \"datasheet\" (clean U at design flows), \"geometry\" (from the bundle " +
+                    "and the fluids' properties) or \"baseline\" (fitted after a cleaning).");
                 break;
         }
         n.Done();

@@ -91,6 +91,23 @@ public class PlantConfigurationReaderTests
         Assert.StartsWith("the film coefficients and the clean U disagree: 1/hShell + (Do/Di)/hTube = 0.00167 m2K/W but 1/U − wall = 0.00222 m2K/W", e.Message);
     }
 
+    // The geometry method checks the bundle as a designer would and needs both fluids' transport properties.
+    // 1000 tubes of 19.05 mm at 23.81 mm triangular pitch in a 489 mm shell: about 344 fit (CTP·(π/4)·Ds²/(CL·Pt²));
+    // their surface 1000·π·0.01905·4.877 = 291.9 m² is 17 % off the stated 250 m².
+    [Fact]
+    public void A_geometry_that_cannot_be_built_or_fluids_without_transport_properties_are_refused()
+    {
+        var geometry = "\"method\": \"geometry\", \"shellDiameter\": \"489 mm\", \"tubeOuterDiameter\": \"19.05 mm\", " +
+            "\"tubeInnerDiameter\": \"15.75 mm\", \"tubeLength\": \"4.877 m\", \"tubeCount\": 1000, \"tubePitch\": \"23.81 mm\", " +
+            "\"tubePasses\": 2, \"baffleSpacing\": \"0.05 m\"";
+        var ex = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"", geometry));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean.tubeCount" && e.Message.StartsWith("1000 tubes do not fit a 489 mm shell", StringComparison.Ordinal));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean" && e.Message.StartsWith("the tubes' outside surface N·π·Do·L = 291.9 m2", StringComparison.Ordinal));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean.baffleSpacing");
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean" && e.Message.Contains("hot.fluid", StringComparison.Ordinal));
+        Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean" && e.Message.Contains("cold.fluid", StringComparison.Ordinal));
+    }
+
     // A petroleum liquid's viscosity needs two points with the lower viscosity at the higher temperature.
     [Fact]
     public void A_petroleum_viscosity_that_rises_with_temperature_is_refused()

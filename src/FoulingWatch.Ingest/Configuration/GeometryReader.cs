@@ -1,0 +1,52 @@
+using FoulingWatch.Core.Exchangers;
+using FoulingWatch.Core.FluidModels;
+using FoulingWatch.Core.Units;
+
+namespace FoulingWatch.Ingest.Configuration;
+
+public static partial class PlantConfigurationReader
+{
+    private static readonly string[] Layouts = ["triangular", "square", "rotated-square"];
+
+    /// <summary>
+    /// The geometry method's bundle, checked as a designer would: inner diameter below outer, pitch at least 1.2 tube
+    /// diameters (TEMA's minimum is 1.25; a little room for rounding), baffle spacing between a fifth of the shell
+    /// diameter and two diameters (TEMA's minimum and a generous maximum), the tube count within what the shell holds, and
+    /// the tube surface within 15 % of the exchanger's area. Both fluids need transport properties.
+    /// </summary>
+    private static GeometryCleanReference? ReadGeometry(JsonNode n, StreamConfiguration? hot, StreamConfiguration? cold, double? area)
+    {
+        var ds = n.Quantity("shellDiameter", Dimension.Length, required: true, minSi: 0.05, maxSi: 5);
+        var dout = n.Quantity("tubeOuterDiameter", Dimension.Length, required: true, minSi: 0.003, maxSi: 0.1);
+        var din = n.Quantity("tubeInnerDiameter", Dimension.Length, required: true, minSi: 0.002, maxSi: 0.1);
+        var length = n.Quantity("tubeLength", Dimension.Length, required: true, minSi: 0.2, maxSi: 30);
+        var count = n.Integer("tubeCount", required: true, min: 1, max: 100_000);
+        var pitch = n.Quantity("tubePitch", Dimension.Length, required: true, minSi: 0.004, maxSi: 0.2);
+        var layoutText = n.String("layout") ?? "triangular";
+        var passes = n.Integer("tubePasses", min: 1, max: 16) ?? 1;
+        var baffles = n.Quantity("baffleSpacing", Dimension.Length, required: true, minSi: 0.02, maxSi: 10);
+        var wall = n.Quantity("wallConductivity", Dimension.ThermalConductivity, minSi: 1, maxSi: 500) ?? 50;
+        var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? GeometryCleanReference.DefaultUncertainty;
+        var layout = layoutText.ToLowerInvariant() switch
+        {
+            "triangular" => TubeLayout.Triangular, "square" => TubeLayout.Square, "rotated-square" => TubeLayout.RotatedSquare, _ => (TubeLayout?)null,
+        };
+        if (layout is null) n.Error("layout", $"'{layoutText}' is not a tube layout; use {string.Join(", ", Layouts.Select(l => $"\"{l}\""))}.");
+        if (din >= dout) n.Error("tubeInnerDiameter", "must be smaller than tubeOuterDiameter.");
+        if (pitch < 1.2 * dout) n.Error("tubePitch", "must be at least 1.2 tube outer diameters (TEMA: 1.25).");
+        if (baffles < 0.2 * ds || baffles > 2 * ds) n.Error("baffleSpacing", "must lie between a fifth of the shell diameter and two shell diameters.");
+        foreach (var (side, key) in new[] { (hot, "hot"), (cold, "cold") })
+            if (side?.Fluid is { } f && (f.IsPhaseChange || f is not ITransportFluid))
+                n.ErrorHere($"the geometry method needs the viscosity and conductivity of both fluids; {key}.fluid ({f.Description}) has not: " +
+                    "use \"water\" or a petroleum liquid with its viscosity, or the datasheet method.");
+        if (ds is null || dout is null || din is null || length is null || count is null || pitch is null || baffles is null || layout is null
+            || din >= dout || pitch < 1.2 * dout)
+            return null;
+        var g = new ShellAndTubeGeometry(ds.Value, dout.Value, din.Value, length.Value, count.Value, pitch.Value, layout.Value, passes, baffles.Value, wall);
+        if (count > 1.05 * g.TubeCapacity)
+            n.Error("tubeCount", FormattableString.Invariant($"{count} tubes do not fit a {ds * 1000:0} mm shell at this pitch and pass count (about {g.TubeCapacity:0} do); check the values."));
+        if (area is { } a && Math.Abs(g.OutsideArea - a) > 0.15 * a)
+            n.ErrorHere(FormattableString.Invariant($"the tubes' outside surface N·π·Do·L = {g.OutsideArea:0.#} m2 differs from the exchanger's area {a:0.#} m2 by more than 15 %; check the geometry or the area."));
+        return new GeometryCleanReference(g, uncertainty);
+    }
+}
