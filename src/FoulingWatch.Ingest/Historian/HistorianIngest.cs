@@ -190,7 +190,7 @@ public static partial class HistorianIngest
     }
 
     private static CsvReader OpenReader(string file, FileDialect dialect) =>
-        CsvReader.Create(new QuoteBalancingStream(ExportStream.OpenAt(file, dialect.HeaderByteOffset)), ReaderOptions(dialect, hasHeader: true), leaveOpen: false);
+        CsvReader.Create(new QuoteBalancingStream(ExportStream.OpenAt(file, dialect.HeaderByteOffset), dialect.Delimiter), ReaderOptions(dialect, hasHeader: true), leaveOpen: false);
 
     /// <summary>How every export is read: the dialect's separator and encoding, line numbers kept for the messages.</summary>
     private static CsvReaderOptions ReaderOptions(FileDialect dialect, bool hasHeader) => new()

@@ -6,7 +6,7 @@ namespace FoulingWatch.Ingest.Historian;
 /// quote. Bytes are handed on only once their lines are decided (a quoted field may close up to
 /// <see cref="HistorianIngest.MaxLineBreaksInField"/> lines later); memory stays one block and the undecided tail.
 /// </summary>
-internal sealed class QuoteBalancingStream(Stream inner) : Stream
+internal sealed class QuoteBalancingStream(Stream inner, char delimiter) : Stream
 {
     private const int Block = 1 << 16;
     private byte[] _buffer = new byte[2 * Block];
@@ -25,7 +25,9 @@ internal sealed class QuoteBalancingStream(Stream inner) : Stream
             var n = inner.Read(_buffer, _filled, _buffer.Length - _filled);
             _filled += n;
             _atEnd = n == 0;
-            _decided = HistorianIngest.BalanceQuotesPerLine(_buffer.AsSpan(0, _filled), _atEnd);
+            _decided = HistorianIngest.BalanceQuotesPerLine(_buffer.AsSpan(0, _filled), _atEnd, (byte)delimiter);
+            // hand on whole lines only: the next pass must see each line from its start
+            if (!_atEnd) _decided = _buffer.AsSpan(0, _decided).LastIndexOfAny((byte)'\n', (byte)'\r') + 1;
         }
         var count = Math.Min(destination.Length, _decided - _start);
         _buffer.AsSpan(_start, count).CopyTo(destination);

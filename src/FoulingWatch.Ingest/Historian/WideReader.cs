@@ -235,10 +235,11 @@ public static partial class HistorianIngest
                     else length += n;
                 }
                 if (length == 0) yield break;
-                BalanceQuotesPerLine(buffer.AsSpan(0, length), end);
+                // cut only where the quotes are decided (a stray quote's line is known only with the lines after it)
+                var decided = BalanceQuotesPerLine(buffer.AsSpan(0, length), end, (byte)dialect.Delimiter);
                 var lines = 0;
                 var plain = false;
-                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, length), out lines, out plain);
+                var cut = end ? length : RecordsEnd(buffer.AsSpan(0, decided), out lines, out plain);
                 if (end)
                 {
                     var (breaks, quotes, loneReturns) = CountBreaksAndQuotes(buffer.AsSpan(0, length));
@@ -273,45 +274,92 @@ public static partial class HistorianIngest
     public const int MaxLineBreaksInField = 2;
 
     /// <summary>
-    /// A quote that a line leaves open and that no line within the next <see cref="MaxLineBreaksInField"/> closes is a
-    /// stray character (a damaged value such as <c>"150</c>), not the start of a field running on to the next quote in
-    /// the file, which would swallow every row up to it into one value. Its line's quotes become apostrophes: the line
-    /// still splits at its delimiters, the damaged value is rejected as text and counted, and no other row is lost.
-    /// Quoted fields that close within the allowance, line breaks and all, are left as they are. Lines still undecided
-    /// at the end of <paramref name="data"/> (more to read) are left for the next pass. Returns the length decided.
+    /// Quotes made to mean what the CSV reader will take them for, line by line. A quote that opens a field (at the
+    /// start of a field) and that no line within the next <see cref="MaxLineBreaksInField"/> closes is a stray character
+    /// (a damaged value such as <c>"150</c>), not the start of a field running on to the next quote in the file, which
+    /// would swallow every row up to it into one value: its line's quotes become apostrophes, the line still splits at
+    /// its delimiters, the damaged value is rejected as text and counted, and no other row is lost. A quote inside an
+    /// unquoted field (<c>12"5</c>), which the reader keeps as a plain character, becomes an apostrophe too, so that
+    /// every quote left opens, closes or doubles inside a quoted field and the cutter's quote count agrees with the
+    /// reader. Quoted fields that close within the allowance, line breaks and all, are left as they are. Lines still
+    /// undecided at the end of <paramref name="data"/> (more to read) are left for the next pass. Returns the length
+    /// decided.
     /// </summary>
-    internal static int BalanceQuotesPerLine(Span<byte> data, bool atEnd)
+    internal static int BalanceQuotesPerLine(Span<byte> data, bool atEnd, byte delimiter)
     {
-        if (data.IndexOf((byte)'"') < 0) return atEnd ? data.Length : Math.Max(0, data.LastIndexOf((byte)'\n') + 1);
-        static bool Odd(ReadOnlySpan<byte> line) => (line.Count((byte)'"') & 1) == 1;
+        if (data.IndexOf((byte)'"') < 0) return data.Length; // nothing to decide
         var start = 0;
         while (start < data.Length)
         {
-            var lf = data[start..].IndexOf((byte)'\n');
-            if (lf < 0 && !atEnd) return start;
-            var line = lf < 0 ? data[start..] : data.Slice(start, lf);
-            var next = lf < 0 ? data.Length : start + lf + 1;
-            if (Odd(line))
+            var (end, next) = NextBreak(data, start, atEnd);
+            if (end < 0) return start;
+            var line = data[start..end];
+            if (Walk(line, inQuotes: false, delimiter, fix: true))
             {
                 // look for the line that closes the field within the allowance
                 var closedAt = -1;
                 var pos = next;
+                var inQuotes = true;
                 for (var k = 0; k < MaxLineBreaksInField && closedAt < 0; k++)
                 {
                     if (pos >= data.Length) { if (!atEnd) return start; break; }
-                    var lf2 = data[pos..].IndexOf((byte)'\n');
-                    if (lf2 < 0 && !atEnd) return start;
-                    var following = lf2 < 0 ? data[pos..] : data.Slice(pos, lf2);
-                    var after = lf2 < 0 ? data.Length : pos + lf2 + 1;
-                    if (Odd(following)) closedAt = after;
+                    var (_, after) = NextBreak(data, pos, atEnd);
+                    if (after < 0) return start;
+                    inQuotes = Walk(data[pos..after], inQuotes, delimiter, fix: false);
+                    if (!inQuotes) closedAt = after;
                     pos = after;
                 }
-                if (closedAt >= 0) { start = closedAt; continue; }
+                if (closedAt >= 0)
+                {
+                    Walk(data[next..closedAt], inQuotes: true, delimiter, fix: true);
+                    start = closedAt;
+                    continue;
+                }
                 line.Replace((byte)'"', (byte)'\'');
             }
             start = next;
         }
         return start;
+    }
+
+    /// <summary>The end of the line starting at <paramref name="from"/> and the start of the next (LF, CRLF or a lone CR
+    /// end a line, as the CSV reader reads them), or (-1, -1) when its end is not in the data yet.</summary>
+    private static (int End, int Next) NextBreak(ReadOnlySpan<byte> data, int from, bool atEnd)
+    {
+        var i = data[from..].IndexOfAny((byte)'\n', (byte)'\r');
+        if (i < 0) return atEnd ? (data.Length, data.Length) : (-1, -1);
+        i += from;
+        if (data[i] == (byte)'\n') return (i, i + 1);
+        if (i + 1 < data.Length) return (i, data[i + 1] == (byte)'\n' ? i + 2 : i + 1);
+        return atEnd ? (i, i + 1) : (-1, -1);
+    }
+
+    /// <summary>
+    /// Walks bytes as the CSV reader reads them (RFC 4180, leniently): a quote at the start of a field opens it, inside
+    /// it a doubled quote is one quote and a single one closes it; any other quote is a plain character. Returns whether
+    /// the walk ends inside a quoted field; with <paramref name="fix"/> the plain-character quotes become apostrophes.
+    /// </summary>
+    private static bool Walk(Span<byte> s, bool inQuotes, byte delimiter, bool fix)
+    {
+        var fieldStart = !inQuotes;
+        for (var i = 0; i < s.Length; i++)
+        {
+            var c = s[i];
+            if (inQuotes)
+            {
+                if (c != (byte)'"') continue;
+                if (i + 1 < s.Length && s[i + 1] == (byte)'"') { i++; continue; }
+                inQuotes = false;
+                fieldStart = false;
+            }
+            else if (c == (byte)'"')
+            {
+                if (fieldStart) { inQuotes = true; fieldStart = false; }
+                else if (fix) s[i] = (byte)'\'';
+            }
+            else fieldStart = c == delimiter || c == (byte)'\n' || c == (byte)'\r';
+        }
+        return inQuotes;
     }
 
     /// <summary>The length of the run of whole records at the start of <paramref name="data"/>: up to the last line break outside quotes, or -1.</summary>

@@ -112,4 +112,26 @@ public class FuzzTests(ITestOutputHelper output)
         }
         Assert.Equal(300, whole.TagLedgers["FI-101"].Used);
     }
+
+    // Found by the long fuzz run: a quote inside an unquoted field ("120"open…) is a plain character to the CSV reader,
+    // but the line-by-line balancing counted it as opening a field that a later stray quote "closed"; the reader then
+    // ran that later quote's field on to the end of the file when read in one part (148 of 241 rows), not in small parts.
+    [Fact]
+    public void A_quote_inside_an_unquoted_field_does_not_pair_with_a_stray_quote_two_lines_on()
+    {
+        var start = new DateTime(2026, 5, 4, 0, 0, 0, DateTimeKind.Utc);
+        var lines = Rows(240, start).Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        lines[100] = lines[100].Replace(",100.5,", ",100\"open.5,");
+        lines[102] = lines[102].Replace(",150,", ",\"open150,");
+        using var plant = new TestPlant().WithFile("quotes.csv", Header + string.Join("\n", lines) + "\n")
+            .WithConfig("""{ "files": ["quotes.csv"] }""", data: "\"interval\": \"10 min\"");
+        foreach (var size in new int?[] { null, 300, 4096 })
+        {
+            var r = Read(plant.ConfigPath, size)!;
+            Assert.Equal(240, r.Files.Single().DataRows);
+            Assert.Equal(239, r.TagLedgers["FI-101"].Used);
+            Assert.Equal(239, r.TagLedgers["TI-101"].Used);
+            Assert.Equal(240, r.TagLedgers["TI-102"].Used);
+        }
+    }
 }
