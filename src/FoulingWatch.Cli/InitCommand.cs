@@ -40,17 +40,34 @@ public static class InitCommand
         var formatNote = isoTimes ? "" : formats.Count == 1 ? "   // CHECK: format recognised from the data" : formats.Count > 1 ? $"   // CHECK: the data fit {string.Join(" and ", formats.Select(Json))}; choose" : "   // CHECK: timestamps are not ISO 8601 nor a usual format; give their format";
 
         var tags = new List<TagInfo>();
-        for (var i = 0; i < dialect.Header.Count; i++)
+        // A long export (one row per tag and time): its tag and value columns, read further so that an export sorted
+        // by tag shows every tag.
+        var (tagColumn, valueColumn, qualityColumn) = (Find(dialect.Header, TagColumnNames), Find(dialect.Header, ValueColumnNames), Find(dialect.Header, QualityColumnNames));
+        var isLong = tagColumn >= 0 && valueColumn >= 0 && tsColumn >= 0;
+        var qualities = new Dictionary<string, int>(StringComparer.Ordinal);
+        if (isLong)
         {
-            if (i == tsColumn) continue;
-            var name = dialect.Header[i];
-            var values = data.Select(r => i < r.Count ? Parse(r[i], dialect.DecimalSeparator) : double.NaN).Where(double.IsFinite).ToList();
-            var role = RoleOf(name);
-            var statedUnit = unitRow is not null && i < unitRow.Count ? unitRow[i].Trim() : "";
-            var (unit, guessed) = UnitOf(role, statedUnit, values);
-            tags.Add(new TagInfo(name, role, unit, guessed, values.Count > 0 ? values.Average() : double.NaN,
-                values.Count > 0 ? values.Min() : double.NaN, values.Count > 0 ? values.Max() : double.NaN));
+            var byTag = new Dictionary<string, List<double>>(StringComparer.Ordinal);
+            var order = new List<string>();
+            foreach (var r in SampleRows(dataFiles[0], dialect, 200_000))
+            {
+                if (qualityColumn >= 0 && qualityColumn < r.Count && qualities.Count < 50)
+                    qualities[r[qualityColumn].Trim()] = qualities.GetValueOrDefault(r[qualityColumn].Trim()) + 1;
+                if (tagColumn >= r.Count || valueColumn >= r.Count) continue;
+                var name = r[tagColumn].Trim();
+                if (name.Length == 0) continue;
+                if (!byTag.TryGetValue(name, out var list)) { byTag[name] = list = []; order.Add(name); }
+                if (list.Count < 300 && Parse(r[valueColumn], dialect.DecimalSeparator) is var v && double.IsFinite(v)) list.Add(v);
+            }
+            foreach (var name in order) tags.Add(Info(name, "", byTag[name]));
         }
+        else
+            for (var i = 0; i < dialect.Header.Count; i++)
+            {
+                if (i == tsColumn) continue;
+                var values = data.Select(r => i < r.Count ? Parse(r[i], dialect.DecimalSeparator) : double.NaN).Where(double.IsFinite).ToList();
+                tags.Add(Info(dialect.Header[i], unitRow is not null && i < unitRow.Count ? unitRow[i].Trim() : "", values));
+            }
 
         var streams = new List<(TagInfo Flow, TagInfo A, TagInfo B)>();
         // A flow's two temperatures: the two tags whose names place them on the same stream (same parts once the
@@ -79,6 +96,19 @@ public static class InitCommand
         sb.AppendLine("    \"interval\": \"10 min\",");
         sb.AppendLine("    \"sources\": [ {");
         sb.AppendLine($"      \"files\": [{string.Join(", ", dataFiles.Select(f => Json(Path.GetRelativePath(Path.GetDirectoryName(Path.GetFullPath(outPath))!, Path.GetFullPath(f)))))}],");
+        if (isLong)
+        {
+            sb.AppendLine($"      \"layout\": \"long\", \"tagColumn\": {Json(dialect.Header[tagColumn])}, \"valueColumn\": {Json(dialect.Header[valueColumn])},   // CHECK: one row per tag and time");
+            if (qualityColumn >= 0)
+            {
+                // the texts seen, and as good those the reader takes as good by default (Good, G, 192, 0, OK)
+                string[] usual = ["Good", "G", "192", "0", "OK"];
+                var good = qualities.Keys.Where(q => usual.Contains(q, StringComparer.OrdinalIgnoreCase)).ToList();
+                var seen = string.Join(", ", qualities.OrderByDescending(q => q.Value).Take(6).Select(q => $"{q.Key} {q.Value}"));
+                sb.AppendLine($"      \"qualityColumn\": {Json(dialect.Header[qualityColumn])}, \"goodQuality\": [{string.Join(", ", good.Select(Json))}],   " +
+                    $"// CHECK: quality texts seen: {seen}; rows with any other text are counted as bad-quality");
+            }
+        }
         sb.AppendLine($"      \"timestamp\": {{ \"column\": {Json(tsColumn >= 0 ? dialect.Header[tsColumn] : "Timestamp")}{formatText} }}{formatNote}");
         sb.AppendLine("    } ]");
         sb.AppendLine("  },");
@@ -121,7 +151,7 @@ public static class InitCommand
         var sb = new StringBuilder();
         sb.AppendLine($"      \"{name}\": {{");
         sb.AppendLine($"        \"side\": \"{side}\",   // CHECK: tube or shell");
-        sb.AppendLine("        \"fluid\": { \"model\": \"constant-cp\", \"cp\": \"2.2 kJ/kgK\" },   // CHECK: water, petroleum (api, watsonK), constant-cp, …");
+        sb.AppendLine(FluidGuess(s));
         sb.AppendLine($"        \"flow\": {Tag(s.Flow)},{Note(s.Flow)}");
         var inletNote = $"inlet taken as the {(inletIsHigher ? "hotter" : "colder")} of the two" + (inlet.UnitGuessed ? $"; unit guessed from values {inlet.Min.ToString("0.#", CultureInfo.InvariantCulture)}…{inlet.Max.ToString("0.#", CultureInfo.InvariantCulture)}" : "");
         sb.AppendLine($"        \"inlet\": {Tag(inlet)},   // CHECK: {inletNote}");
@@ -131,6 +161,39 @@ public static class InitCommand
     }
 
     private static string Json(string s) => System.Text.Json.JsonSerializer.Serialize(s);
+
+    private static readonly string[] TagColumnNames = ["tag", "tagname", "tag name", "tag_name", "point", "pointname", "point name", "signal", "name"];
+    private static readonly string[] ValueColumnNames = ["value", "val", "reading"];
+    private static readonly string[] QualityColumnNames = ["quality", "status", "q"];
+
+    private static int Find(IReadOnlyList<string> header, string[] names)
+    {
+        foreach (var n in names)
+            for (var i = 0; i < header.Count; i++)
+                if (string.Equals(header[i].Trim(), n, StringComparison.OrdinalIgnoreCase)) return i;
+        return -1;
+    }
+
+    private static TagInfo Info(string name, string statedUnit, List<double> values)
+    {
+        var role = RoleOf(name);
+        var (unit, guessed) = UnitOf(role, statedUnit, values);
+        return new TagInfo(name, role, unit, guessed, values.Count > 0 ? values.Average() : double.NaN,
+            values.Count > 0 ? values.Min() : double.NaN, values.Count > 0 ? values.Max() : double.NaN);
+    }
+
+    /// <summary>The fluid line of a stream: water when its tags name cooling water or its temperatures stay within
+    /// 5–50 °C (where a cooling-water circuit runs; common practice), else a constant cp to be replaced.</summary>
+    private static string FluidGuess((TagInfo Flow, TagInfo A, TagInfo B) s)
+    {
+        var names = new[] { s.Flow.Tag, s.A.Tag, s.B.Tag }.SelectMany(Tokens).ToList();
+        var named = names.Any(t => t is "CW" or "CWS" or "CWR" || t.Contains("WATER") || t.Contains("COOLING"));
+        var celsius = s.A.Unit == "degC" && s.B.Unit == "degC";
+        var mild = celsius && Math.Min(s.A.Min, s.B.Min) >= 5 && Math.Max(s.A.Max, s.B.Max) <= 50;
+        if (named || mild)
+            return FormattableString.Invariant($"        \"fluid\": {{ \"model\": \"water\" }},   // CHECK: guessed water from {(named ? "the tag names" : $"temperatures {Math.Min(s.A.Min, s.B.Min):0.#}…{Math.Max(s.A.Max, s.B.Max):0.#} °C")}");
+        return "        \"fluid\": { \"model\": \"constant-cp\", \"cp\": \"2.2 kJ/kgK\" },   // CHECK: water, petroleum (api, watsonK), constant-cp, …";
+    }
 
     private static readonly string[] Suffixes = ["PV", "SP", "OP", "MV", "CV", "VAL", "AVG", "VALUE"];
 

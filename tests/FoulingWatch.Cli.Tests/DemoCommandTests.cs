@@ -100,6 +100,37 @@ public class InitCommandTests
         Assert.Equal(0, SamplePlantCopy.Run("check", "--config", config).Code);
     }
 
+    // A long export (one row per tag and time, sorted by tag) with a quality column: init reads the tag and value
+    // columns instead of taking the header for tags, says which quality texts it saw, and guesses water for a stream
+    // running at 25–35 °C.
+    [Fact]
+    public void Init_reads_a_long_export_and_guesses_cooling_water()
+    {
+        using var plant = new SamplePlantCopy();
+        var csv = new System.Text.StringBuilder("Tagname,Timestamp,Value,Quality\n");
+        (string Tag, double Value)[] tags = [("FI-5011", 80), ("TI-5011", 140), ("TI-5012", 90), ("FI-5013", 150), ("TI-5013", 25), ("TI-5014", 35)];
+        foreach (var (tag, value) in tags)
+            for (var m = 0; m < 400; m++)
+            {
+                var t = new DateTime(2026, 3, 1, 0, 0, 0, DateTimeKind.Utc).AddMinutes(10 * m).ToString("yyyy-MM-ddTHH:mm:ssZ", CultureInfo.InvariantCulture);
+                csv.Append(CultureInfo.InvariantCulture, $"{tag},{t},{value + 0.3 * Math.Sin(m / 5.0):0.00},{(m % 50 == 7 ? "Uncertain" : "Good")}\n");
+            }
+        var export = plant.Out("long.csv");
+        File.WriteAllText(export, csv.ToString());
+        var config = plant.Out("long.json");
+        var (code, output, _) = SamplePlantCopy.Run("init", "--data", export, "--out", config);
+        Assert.Equal(0, code);
+        Assert.Contains("1 candidate exchanger(s) from 6 tags; 0 tag(s) left", output);
+        var text = File.ReadAllText(config);
+        Assert.Contains("\"layout\": \"long\", \"tagColumn\": \"Tagname\", \"valueColumn\": \"Value\"", text);
+        Assert.Contains("\"qualityColumn\": \"Quality\", \"goodQuality\": [\"Good\"]", text);
+        Assert.Contains("quality texts seen: Good 2352, Uncertain 48", text);
+        var coldBlock = text[text.IndexOf("\"cold\"", StringComparison.Ordinal)..];
+        Assert.Contains("\"fluid\": { \"model\": \"water\" },   // CHECK: guessed water from temperatures", coldBlock);
+        Assert.DoesNotContain("Tagname", text[text.IndexOf("\"exchangers\"", StringComparison.Ordinal)..]);
+        Assert.Equal(0, SamplePlantCopy.Run("check", "--config", config).Code);
+    }
+
     // Tag styles from other sites (invented tags): the instrument code is found inside the name, and a flow is paired
     // with the temperatures of its own stream even when the temperatures come first in the header.
     [Theory]
