@@ -11,7 +11,11 @@ public sealed record CurrentState(DateTimeOffset? LastUsable, int Samples, doubl
     double FoulingResistanceSigma, double Cleanliness, double Duty, double LostDuty);
 
 /// <summary>Everything computed for one exchanger.</summary>
-public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend, ExchangerEconomics Economics);
+public sealed record ExchangerResult(ExchangerHistory History, CurrentState Current, IReadOnlyDictionary<string, int> StatusCounts, TrendResult Trend, ExchangerEconomics Economics)
+{
+    /// <summary>Each side's pressure drop at a reference flow over the current cycle, where a pressureDrop tag is configured.</summary>
+    public IReadOnlyList<PressureDropChange> PressureDrops { get; init; } = [];
+}
 
 /// <summary>Everything computed for the plant in one run.</summary>
 /// <param name="AuditPeriod">Period [From, To) of the energy audit; null: the last 12 months of data.</param>
@@ -44,7 +48,10 @@ public static class PlantAnalysis
             var current = Current(history);
             var trend = StageClock.Time("trends", () => TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone));
             var economics = StageClock.Time("economics", () => FoulingEconomics.Run(history, trend, config, current));
-            results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics);
+            results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics)
+            {
+                PressureDrops = PressureDropTrend.Evaluate(x, ingest, history.Samples, config.Site.TimeZone),
+            };
             progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
         });
         var plan = StageClock.Time("plan", () => FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(),

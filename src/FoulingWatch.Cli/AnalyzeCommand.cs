@@ -40,6 +40,8 @@ public static class AnalyzeCommand
                     ? $"drift on {string.Join(" or ", drift.Suspects)} from {SiteCalendar.Date(drift.Onset, config.Site.TimeZone)}"
                     : $"heat balance changed from {SiteCalendar.Date(drift.Onset, config.Site.TimeZone)}, no single sensor explains it")
                     + "; later data not used" + (note.Length > 0 ? "; " + note : "");
+            foreach (var dp in x.PressureDrops.Where(p => p.Change > 0.15))
+                note += (note.Length > 0 ? "; " : "") + FormattableString.Invariant($"{dp.Side} pressure drop {dp.Change:+0%} at reference flow");
             note = (x.Trend.Rate?.Jump == true ? "rate jump! " : "") + note;
             if (PlantAnalysis.DaysStale(x, result.Ingest) is { } stale)
                 note = $"STALE: latest usable data {SiteCalendar.Date(x.Current.LastUsable, config.Site.TimeZone)}, {stale:0} days before the end of the data" + (note.Length > 0 ? "; " + note : "");

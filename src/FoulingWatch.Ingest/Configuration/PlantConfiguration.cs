@@ -105,7 +105,8 @@ public sealed record StreamConfiguration(
     TagReference Outlet,
     double PressurePascals,
     TagReference? PressureTag,
-    double? DesignFlow);
+    double? DesignFlow,
+    TagReference? PressureDropTag = null);
 
 public enum DutyBasis { Hot, Cold, Mean, Reconciled }
 
@@ -203,6 +204,7 @@ public sealed record ExchangerConfiguration(
             yield return s.Inlet;
             yield return s.Outlet;
             if (s.PressureTag is not null) yield return s.PressureTag;
+            if (s.PressureDropTag is not null) yield return s.PressureDropTag;
         }
     }
 }

@@ -602,9 +602,11 @@ public static partial class PlantConfigurationReader
         var inlet = ReadTag(n.Object("inlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
         var outlet = ReadTag(n.Object("outlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
         var design = n.Quantity("designFlow", Dimension.MassFlow, minSi: 0, exclusiveMin: true, maxSi: 1e5);
+        // a pressure difference across the side: no gauge offset, so "barg" reads as "bar"
+        var pressureDrop = n.Has("pressureDrop") ? ReadTag(n.Object("pressureDrop")!, Dimension.Pressure, 0, 0, 1e7) : null;
         n.Done();
         if (side is null || fluid is null || flow is null || inlet is null || outlet is null) return null;
-        return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design);
+        return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design, pressureDrop);
     }
 
     private static double? ReadPressure(JsonNode n, string key, double atmosphere)

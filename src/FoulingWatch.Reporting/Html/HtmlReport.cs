@@ -100,6 +100,8 @@ public static class HtmlReport
                 sb.Append($"<tr><th>clean U by cycle</th><td class=\"{(cycleText.Contains("fell") || cycleText.Contains(" off the learned") ? "warn" : "")}\">{H(cycleText)}</td></tr>");
             if (x.History.Drift is { } drift)
                 sb.Append($"<tr><th>instrument drift</th><td class=\"warn\">{H(drift.Statement)}</td></tr>");
+            foreach (var dp in x.PressureDrops)
+                sb.Append($"<tr><th>pressure drop</th><td class=\"{(dp.Change > 0.15 ? "warn" : "")}\">{H(dp.Statement)}</td></tr>");
             sb.Append("</tbody></table>\n");
             if (exchangerCharts.TryGetValue(xc.Id, out var charts))
                 foreach (var c in charts) sb.Append(Figure(c));

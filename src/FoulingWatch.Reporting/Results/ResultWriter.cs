@@ -121,6 +121,18 @@ public static class ResultWriter
                 bias_unit = x.History.SensorCheck.BiasUnit,
                 fraction_failing_balance_test = NumberText.Json(x.History.SensorCheck.FractionFailingGlobalTest),
             },
+            pressure_drop = x.PressureDrops.Select(p => new
+            {
+                side = p.Side,
+                tag = p.Tag,
+                reference_flow_kg_s = NumberText.Json(p.ReferenceFlow),
+                from = SiteCalendar.Date(p.From, r.Configuration.Site.TimeZone),
+                first_pa = NumberText.Json(p.First),
+                to = SiteCalendar.Date(p.To, r.Configuration.Site.TimeZone),
+                last_pa = NumberText.Json(p.Last),
+                change = NumberText.Json(p.Change),
+                statement = p.Statement,
+            }),
             instrument_drift = x.History.Drift is not { } d ? null : new
             {
                 statement = d.Statement,

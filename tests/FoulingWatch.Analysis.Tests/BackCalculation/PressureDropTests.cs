@@ -1,0 +1,49 @@
+using System.Globalization;
+using FoulingWatch.Core.Exchangers;
+
+namespace FoulingWatch.Analysis.Tests.BackCalculation;
+
+/// <summary>
+/// The tube-side pressure drop as a second fouling signal. Synthetic: the drop at the design flow rises linearly from
+/// 0.50 to 0.60 bar over 30 days while the flow swings ±30 %; the measured drop follows ΔP = ΔP_ref·(ṁ/ṁ_ref)^1.8, so
+/// the referred drop is ΔP_ref exactly and the medians of the first and the last week are its values at their middles
+/// (analytic for a linear history).
+/// </summary>
+public class PressureDropTests
+{
+    private static double Reference(double day) => 0.5 + 0.1 * day / 30;
+
+    [Fact]
+    public void The_drop_referred_to_the_design_flow_shows_the_rise_the_flow_swings_hide()
+    {
+        using var plant = new SyntheticPlant("\"counterflow\"", Counterflow.Instance, d => 1.5e-5 * d, days: 30);
+        var path = Path.Combine(plant.Directory, "export.csv");
+        var lines = File.ReadAllLines(path);
+        var start = DateTimeOffset.Parse(lines[1].Split(',')[0], CultureInfo.InvariantCulture);
+        var raw = new List<double>();
+        for (var i = 1; i < lines.Length; i++)
+        {
+            var f = lines[i].Split(',');
+            var day = (DateTimeOffset.Parse(f[0], CultureInfo.InvariantCulture) - start).TotalDays;
+            var coldFlow = double.Parse(f[4], CultureInfo.InvariantCulture) / 3.6;   // t/h to kg/s
+            var dp = Reference(day) * Math.Pow(coldFlow / SyntheticPlant.DesignCold, 1.8);
+            raw.Add(dp);
+            lines[i] += "," + dp.ToString("R", CultureInfo.InvariantCulture);
+        }
+        lines[0] += ",DPT";
+        File.WriteAllLines(path, lines);
+        var config = File.ReadAllText(plant.ConfigPath).Replace("\"designFlow\": \"30 kg/s\" }",
+            "\"designFlow\": \"30 kg/s\", \"pressureDrop\": { \"tag\": \"DPT\", \"unit\": \"bar\" } }");
+        File.WriteAllText(plant.ConfigPath, config);
+
+        var x = Assert.Single(plant.Analyse().Exchangers);
+        var dpChange = Assert.Single(x.PressureDrops);
+        Assert.Equal("tube", dpChange.Side);
+        Assert.Equal(Reference(3.5) * 1e5, dpChange.First, 1e5 * 0.002);
+        // the last week: the hours after day 29 23:00 − 7 d up to it, whose middle is day (23 + 29 23/24)/2
+        Assert.Equal(Reference((23 + 29 + 23.0 / 24) / 2) * 1e5, dpChange.Last, 1e5 * 0.002);
+        Assert.StartsWith("tube-side pressure drop at 108 t/h: 0.512 → 0.588 bar (+15%)", dpChange.Statement);
+        // the raw readings swing far more than the rise: without referring them to one flow the trend is hidden
+        Assert.True(raw.Max() / raw.Min() > 2, $"raw swing {raw.Max() / raw.Min():0.00}");
+    }
+}
