@@ -228,7 +228,7 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         store.SaveAnalysis(clock.GetUtcNow(), summary, result.Exchangers.SelectMany(x => x.History.Samples.Select(s =>
             (x.History.Exchanger.Id, s.Timestamp.UtcTicks, s.Status.Key(), s.Evaluation.FoulingResistance, s.FoulingResistanceSigma, s.Evaluation.UActual, s.Evaluation.UClean, s.Evaluation.LostDuty))));
         log.LogInformation("Analysed {Exchangers} exchangers over {Intervals} intervals; report at {Report}", result.Exchangers.Count, aligned.IntervalCount, Path.Combine(settings.Out, "report.html"));
-        UpdateAlerts(Conditions(result), ["limit", "rate-jump", "sensor-fault", "balance"]);
+        UpdateAlerts(Conditions(result), ["limit", "rate-jump", "sensor-fault", "balance", "instrument-drift", "pressure-drop-tube", "pressure-drop-shell"]);
         return result;
     }
 
@@ -247,6 +247,7 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
             if (x.Trend.Rate?.Jump == true) list.Add((id, "rate-jump", x.Trend.Rate.Statement));
             if (x.History.SensorCheck.LikelyFault) list.Add((id, "sensor-fault", x.History.SensorCheck.Statement));
             if (x.History.Drift is { } drift) list.Add((id, "instrument-drift", drift.Statement));
+            foreach (var dp in x.PressureDrops.Where(p => p.Change > 0.15)) list.Add((id, $"pressure-drop-{dp.Side}", dp.Statement));
             var last = x.History.Samples.Where(s => s.Status != SampleStatus.Missing).TakeLast(144).ToList();
             if (last.Count >= 36 && last.Count(s => s.Status == SampleStatus.Balance) * 2 > last.Count)
                 list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s.Status == SampleStatus.Balance)} of the last {last.Count} samples")));
