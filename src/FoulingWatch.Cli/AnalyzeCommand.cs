@@ -60,7 +60,7 @@ public static class AnalyzeCommand
     }
 
     /// <summary>A one-line progress display on an interactive terminal's standard error, or null (quiet, JSON, redirected).</summary>
-    private static IProgress<(string Stage, double Fraction)>? ProgressOn(bool silent, TextWriter error) =>
+    internal static IProgress<(string Stage, double Fraction)>? ProgressOn(bool silent, TextWriter error) =>
         silent || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null
             : new Progress<(string Stage, double Fraction)>(p => error.Write("\r" + ProgressLine(p.Stage, p.Fraction)));
 

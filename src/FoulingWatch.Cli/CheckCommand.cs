@@ -12,7 +12,11 @@ public static class CheckCommand
     public static int Run(string configPath, bool json, TextWriter output, TextWriter error)
     {
         var config = PlantConfigurationReader.Load(configPath);
-        var ingest = HistorianIngest.Run(config);
+        // a one-line progress display on an interactive terminal (reading the exports is what takes the time)
+        var progress = AnalyzeCommand.ProgressOn(json, error);
+        var ingest = HistorianIngest.Run(config, progress is null ? null
+            : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction))));
+        if (progress is not null) error.Write("\r" + new string(' ', 90) + "\r");
         if (json)
         {
             output.WriteLine(JsonSerializer.Serialize(new
