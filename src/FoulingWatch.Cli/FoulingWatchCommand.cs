@@ -18,6 +18,8 @@ public static class FoulingWatchCommand
 
         var configOption = new Option<FileInfo>("--config", "-c") { Description = "The plant configuration (JSON).", Required = true };
         var jsonOption = new Option<bool>("--json") { Description = "Write machine-readable JSON to standard output instead of tables." };
+        var verboseOption = new Option<bool>("--verbose") { Description = $"Print the details of an unexpected error (as {VerboseVariable}=1); for watch, log at debug level unless --log-level is given.", Recursive = true };
+        root.Options.Add(verboseOption);
 
         var check = new Command("check", "Validate the configuration and the data and show the quality ledger, without analysing.");
         check.Options.Add(configOption);
@@ -72,7 +74,8 @@ public static class FoulingWatchCommand
         logLevelOption.AcceptOnlyFromAmong(WatchSettings.LogLevels);
         watch.Options.Add(logLevelOption);
         watch.SetAction(p => Guard(error, () => Watch.WatchCommand.Run(p.GetValue(configOption)!.FullName, p.GetValue(dropOption)?.FullName, p.GetValue(storeOption)?.FullName,
-            p.GetValue(watchOut)?.FullName, p.GetValue(pollOption) is { } s ? TimeSpan.FromSeconds(s) : null, error, p.GetValue(logLevelOption))));
+            p.GetValue(watchOut)?.FullName, p.GetValue(pollOption) is { } s ? TimeSpan.FromSeconds(s) : null, error,
+            p.GetValue(logLevelOption) ?? (p.GetValue(verboseOption) ? "debug" : null))));
         root.Subcommands.Add(watch);
 
         var status = new Command("status", "Show what the watch service's store holds and its active alerts.");
@@ -98,6 +101,7 @@ public static class FoulingWatchCommand
         root.Subcommands.Add(demo);
 
         var parsed = root.Parse(args);
+        Verbose = parsed.GetValue(verboseOption);
         return parsed.Invoke(new InvocationConfiguration { Output = output, Error = error });
     }
 
@@ -127,12 +131,17 @@ public static class FoulingWatchCommand
         {
             // Anything else is a defect of ours, not of the input: say so in one line; the trace only on request.
             error.WriteLine($"FoulingWatch stopped on an unexpected error ({ex.GetType().Name}: {ex.Message}). Please report it with " +
-                            $"the command and its input files{(Environment.GetEnvironmentVariable(VerboseVariable) == "1" ? "" : $"; set {VerboseVariable}=1 to print the details")}.");
-            if (Environment.GetEnvironmentVariable(VerboseVariable) == "1") error.WriteLine(ex);
+                            $"the command and its input files{(ShowDetails ? "" : "; run it again with --verbose to print the details")}.");
+            if (ShowDetails) error.WriteLine(ex);
             return DataError;
         }
     }
 
-    /// <summary>Set to 1 to print the stack trace of an unexpected error.</summary>
+    /// <summary>Set to 1 to print the stack trace of an unexpected error (as --verbose does).</summary>
     public const string VerboseVariable = "FOULINGWATCH_VERBOSE";
+
+    /// <summary>--verbose was given (read when the command line is parsed).</summary>
+    [ThreadStatic] private static bool Verbose;
+
+    private static bool ShowDetails => Verbose || Environment.GetEnvironmentVariable(VerboseVariable) == "1";
 }

@@ -351,3 +351,17 @@ public class ConsoleWidthTests
         Assert.All(lines, l => Assert.True(l.Length <= 120, $"{l.Length} columns: {l}"));
     }
 }
+
+public class VerboseOptionTests
+{
+    // --verbose is accepted by every command (an unknown option would be a usage error, exit 1).
+    [Fact]
+    public void Verbose_is_accepted_by_every_command()
+    {
+        using var plant = new SamplePlantCopy();
+        var (code, output, error) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath, "--verbose");
+        Assert.True(code == 0, error);
+        Assert.Contains("Configuration plant.json: valid", output);
+        Assert.Equal(1, SamplePlantCopy.Run("check", "--config", plant.ConfigPath, "--verbosity").Code);
+    }
+}
