@@ -15,6 +15,9 @@ public sealed record ExchangerResult(ExchangerHistory History, CurrentState Curr
 {
     /// <summary>Each side's pressure drop at a reference flow over the current cycle, where a pressureDrop tag is configured.</summary>
     public IReadOnlyList<PressureDropChange> PressureDrops { get; init; } = [];
+
+    /// <summary>Duties at the latest usable interval in the actual arrangement, as counterflow and as parallel flow.</summary>
+    public IReadOnlyList<ArrangementDuty> WhatIf { get; init; } = [];
 }
 
 /// <summary>Everything computed for the plant in one run.</summary>
@@ -51,6 +54,7 @@ public static class PlantAnalysis
             results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics)
             {
                 PressureDrops = PressureDropTrend.Evaluate(x, ingest, history.Samples, config.Site.TimeZone),
+                WhatIf = WhatIf.Rate(x, history.Samples),
             };
             progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
         });

@@ -100,6 +100,9 @@ public static class HtmlReport
                 sb.Append($"<tr><th>clean U by cycle</th><td class=\"{(cycleText.Contains("fell") || cycleText.Contains(" off the learned") ? "warn" : "")}\">{H(cycleText)}</td></tr>");
             if (x.History.Drift is { } drift)
                 sb.Append($"<tr><th>instrument drift</th><td class=\"warn\">{H(drift.Statement)}</td></tr>");
+            if (x.WhatIf.Count > 0)
+                sb.Append($"<tr><th>what-if (latest usable interval)</th><td>{H(string.Join("; ", x.WhatIf.Select(w =>
+                    FormattableString.Invariant($"{w.Arrangement}{(w.Actual ? " (as built)" : "")}: {w.CleanDuty / 1e3:N0} kW clean, {w.DutyNow / 1e3:N0} kW at today's U"))))}</td></tr>");
             foreach (var dp in x.PressureDrops)
                 sb.Append($"<tr><th>pressure drop</th><td class=\"{(dp.Change > 0.15 ? "warn" : "")}\">{H(dp.Statement)}</td></tr>");
             sb.Append("</tbody></table>\n");

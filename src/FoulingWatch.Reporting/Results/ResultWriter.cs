@@ -121,6 +121,13 @@ public static class ResultWriter
                 bias_unit = x.History.SensorCheck.BiasUnit,
                 fraction_failing_balance_test = NumberText.Json(x.History.SensorCheck.FractionFailingGlobalTest),
             },
+            what_if = x.WhatIf.Select(w => new
+            {
+                arrangement = w.Arrangement,
+                as_built = w.Actual,
+                clean_duty_w = NumberText.Json(w.CleanDuty),
+                duty_now_w = NumberText.Json(w.DutyNow),
+            }),
             pressure_drop = x.PressureDrops.Select(p => new
             {
                 side = p.Side,
