@@ -96,8 +96,18 @@ static double[] Operate(SampleExchanger x, double mHot, double mCold, double thi
     var shellDesign = x.HotOnTube ? x.DesignColdFlow : x.DesignHotFlow;
     var film = 1 / x.CleanU;
     var nShell = x.Hot.IsPhaseChange ? 0 : 0.6;
-    var uClean = 1 / (0.5 * film * Math.Pow(tubeDesign / tubeFlow, 0.8) + 0.5 * film * Math.Pow(shellDesign / shellFlow, nShell));
-    var u = 1 / (1 / uClean + rf);
+    // A water film at a fixed flow: 1/h ∝ μ^(0.8−0.4)·cp^(−0.4)·k^(−0.6) (Dittus–Boelter, Nu = 0.023·Re^0.8·Pr^0.4).
+    var waterScaling = x.TubeWaterDesignBulkC is not null && x.Cold is IapwsWater;
+    double WaterGroup(double kelvin)
+    {
+        var w = (IapwsWater)x.Cold;
+        var t = Temperature.FromKelvin(kelvin);
+        return Math.Pow(w.Viscosity(t, pc), 0.4) * Math.Pow(w.SpecificHeat(t, pc), -0.4) * Math.Pow(w.ThermalConductivity(t, pc), -0.6);
+    }
+    double Factor(double tubeBulkK) => waterScaling ? WaterGroup(tubeBulkK) / WaterGroup(x.TubeWaterDesignBulkC!.Value + 273.15) : 1;
+    double U(double tubeBulkK) => 1 / (1 / (1 / (0.5 * film * Math.Pow(tubeDesign / tubeFlow, 0.8) * Factor(tubeBulkK)
+        + 0.5 * film * Math.Pow(shellDesign / shellFlow, nShell))) + rf);
+    var u = U(tciC + 273.15 + 3);
     if (x.Hot is SteamPhaseChange steam)
     {
         var thi = steam.SaturationTemperature + new TemperatureDifference(5);
@@ -123,7 +133,9 @@ static double[] Operate(SampleExchanger x, double mHot, double mCold, double thi
         rr = Rating.Rate(x.Arrangement, u * x.Area, ch, c2, hIn, cIn);
         ch = mHot * x.Hot.MeanSpecificHeat(hIn, rr.HotOutlet, p);
         c2 = mCold * x.Cold.MeanSpecificHeat(cIn, rr.ColdOutlet, pc);
+        if (waterScaling) u = U(0.5 * (cIn.Kelvin + rr.ColdOutlet.Kelvin));
     }
+    if (waterScaling) rr = Rating.Rate(x.Arrangement, u * x.Area, ch, c2, hIn, cIn);
     return [mHot, thiC, rr.HotOutlet.Celsius, mCold, tciC, rr.ColdOutlet.Celsius];
 }
 

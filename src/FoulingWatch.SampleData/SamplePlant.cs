@@ -5,6 +5,8 @@ using FoulingWatch.Core.Quantities;
 namespace FoulingWatch.SampleData;
 
 /// <summary>How an invented exchanger of the Kestrel Bay sample plant behaves: true physics, fouling law and artefacts.</summary>
+/// <remarks>With <c>TubeWaterDesignBulkC</c> the tube-side water film also follows the water's viscosity, conductivity
+/// and cp at its bulk temperature (Dittus–Boelter form), as a real cooling-water film does through the seasons.</remarks>
 public sealed record SampleExchanger(
     string Id,
     string TagPrefix,
@@ -24,7 +26,8 @@ public sealed record SampleExchanger(
     double ColdFlowPeriodDays,
     double PressureHot,
     double PressureCold,
-    Func<DateTimeOffset, double>? ColdOutletDrift = null);
+    Func<DateTimeOffset, double>? ColdOutletDrift = null,
+    double? TubeWaterDesignBulkC = null);
 
 /// <summary>The invented site: a crude preheat train, a cooling-water cooler, a plate exchanger and a steam heater.</summary>
 public static class SamplePlant
@@ -52,7 +55,8 @@ public static class SamplePlant
         new("C-201", "201", new OneShellPassEvenTubePasses(2), 140, KeslerLeePetroleumLiquid.FromApiGravity(60, 12.2), new IapwsWater(),
             false, 50 * Tph, 150 * Tph, 650, 95, 24,
             d => 2e-5 + 1.5e-6 * d, [new(2025, 11, 1, 0, 0, 0, TimeSpan.Zero)], 7, 23, 6e5, 5e5,
-            t => t < new DateTimeOffset(2026, 9, 1, 0, 0, 0, TimeSpan.Zero) ? 0 : 0.035 * (t - new DateTimeOffset(2026, 9, 1, 0, 0, 0, TimeSpan.Zero)).TotalDays),
+            t => t < new DateTimeOffset(2026, 9, 1, 0, 0, 0, TimeSpan.Zero) ? 0 : 0.035 * (t - new DateTimeOffset(2026, 9, 1, 0, 0, 0, TimeSpan.Zero)).TotalDays,
+            TubeWaterDesignBulkC: 27),
         new("P-301", "301", new PlateAsCounterflow(), 95, new ConstantSpecificHeat(3600, new TemperatureRange(250, 400), "glycol solution"),
             new ConstantSpecificHeat(3600, new TemperatureRange(250, 400), "glycol solution"),
             true, 40 * Tph, 40 * Tph, 2400, 85, 35,
