@@ -40,6 +40,9 @@ static (List<DateTimeOffset> Times, Dictionary<string, string[]> Columns, List<s
     {
         string[] names = [$"FI-{x.TagPrefix}1", $"TI-{x.TagPrefix}1", $"TI-{x.TagPrefix}2", $"FI-{x.TagPrefix}3", $"TI-{x.TagPrefix}3", $"TI-{x.TagPrefix}4"];
         foreach (var n in names) { columns[n] = new string[times.Count]; tags.Add(n); units[n] = n.StartsWith("FI") ? "t/h" : "°C"; }
+        var dpTag = $"PDI-{x.TagPrefix}3";
+        if (x.TubePressureDropBar is not null) { columns[dpTag] = new string[times.Count]; tags.Add(dpTag); units[dpTag] = "bar"; }
+        var dpRng = new Random(seed * 1000 + int.Parse(x.TagPrefix, inv));   // its own noise: the other columns stay as they were
         double arHot = 0, arCold = 0, arT = 0;
         var phase = rng.NextDouble() * 10;
         for (var k = 0; k < times.Count; k++)
@@ -79,6 +82,16 @@ static (List<DateTimeOffset> Times, Dictionary<string, string[]> Columns, List<s
                 else if (u < 0.0012) text = "link lost";
                 else if (u < 0.0014) text = "";
                 columns[names[i]][k] = text;
+            }
+            if (x.TubePressureDropBar is { } dpDesign)
+            {
+                // the bore narrowed by the deposit (δ = Rf·0.2 W/mK on a 15.75 mm tube): ΔP ∝ ṁ^1.8·D^−4.75 (Blasius friction)
+                var tubeFlow = x.HotOnTube ? mHot : mCold;
+                var tubeDesign = x.HotOnTube ? x.DesignHotFlow : x.DesignColdFlow;
+                var bore = 15.75e-3;
+                var dp = downtime ? 0.01 * dpRng.NextDouble()
+                    : dpDesign * Math.Pow(bore / (bore - 2 * rf * 0.2), 4.75) * Math.Pow(tubeFlow / tubeDesign, 1.8) * (1 + 0.005 * Gauss(dpRng));
+                columns[dpTag][k] = dp.ToString("0.0000", inv);
             }
         }
     }

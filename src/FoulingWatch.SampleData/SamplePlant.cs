@@ -6,7 +6,9 @@ namespace FoulingWatch.SampleData;
 
 /// <summary>How an invented exchanger of the Kestrel Bay sample plant behaves: true physics, fouling law and artefacts.</summary>
 /// <remarks>With <c>TubeWaterDesignBulkC</c> the tube-side water film also follows the water's viscosity, conductivity
-/// and cp at its bulk temperature (Dittus–Boelter form), as a real cooling-water film does through the seasons.</remarks>
+/// and cp at its bulk temperature (Dittus–Boelter form), as a real cooling-water film does through the seasons. With
+/// <c>TubePressureDropBar</c> a differential-pressure tag across the tube side is written: that drop at design flow in a
+/// clean bundle, growing as the deposit (thickness Rf·0.2 W/mK on 15.75 mm tubes) narrows the bore, ΔP ∝ ṁ^1.8·D^−4.75.</remarks>
 public sealed record SampleExchanger(
     string Id,
     string TagPrefix,
@@ -27,7 +29,8 @@ public sealed record SampleExchanger(
     double PressureHot,
     double PressureCold,
     Func<DateTimeOffset, double>? ColdOutletDrift = null,
-    double? TubeWaterDesignBulkC = null);
+    double? TubeWaterDesignBulkC = null,
+    double? TubePressureDropBar = null);
 
 /// <summary>The invented site: a crude preheat train, a cooling-water cooler, a plate exchanger and a steam heater.</summary>
 public static class SamplePlant
@@ -44,7 +47,8 @@ public static class SamplePlant
             d => 8e-4 * (1 - Math.Exp(-d / 150.0)), [new(2025, 11, 20, 0, 0, 0, TimeSpan.Zero)], 11, 17, 8e5, 15e5),
         new("E-102", "102", new ShellsInSeries(2), 300, KeslerLeePetroleumLiquid.FromApiGravity(35, 11.7), KeslerLeePetroleumLiquid.FromApiGravity(32, 11.9),
             false, 80 * Tph, 110 * Tph, 380, 260, 105,
-            d => 5e-5 + 4e-6 * d, [new(2025, 10, 1, 0, 0, 0, TimeSpan.Zero), new(2026, 5, 14, 0, 0, 0, TimeSpan.Zero)], 13, 17, 8e5, 15e5),
+            d => 5e-5 + 4e-6 * d, [new(2025, 10, 1, 0, 0, 0, TimeSpan.Zero), new(2026, 5, 14, 0, 0, 0, TimeSpan.Zero)], 13, 17, 8e5, 15e5,
+            TubePressureDropBar: 0.8),
         new("E-103", "103", new OneShellPassEvenTubePasses(4), 220, KeslerLeePetroleumLiquid.FromApiGravity(15, 11.5), KeslerLeePetroleumLiquid.FromApiGravity(32, 11.9),
             false, 70 * Tph, 110 * Tph, 300, 330, 180,
             d => 2.9e-5 * Math.Pow(d, 0.6), [new(2025, 11, 25, 0, 0, 0, TimeSpan.Zero), new(2026, 8, 3, 0, 0, 0, TimeSpan.Zero)], 9, 17, 8e5, 15e5),

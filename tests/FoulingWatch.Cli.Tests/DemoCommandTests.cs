@@ -332,7 +332,7 @@ public class CheckUnusableDataTests
         var (code, output, _) = SamplePlantCopy.Run("check", "--config", plant.ConfigPath);
         Assert.Equal(2, code);
         var error = Assert.Single(output.Split('\n'), l => l.StartsWith("error: ", StringComparison.Ordinal)).TrimEnd('\r');
-        Assert.EndsWith("(36 tags): every value lies outside data.window (2030-01-01 to 2030-06-01); move or remove the window.", error);
+        Assert.EndsWith("(37 tags): every value lies outside data.window (2030-01-01 to 2030-06-01); move or remove the window.", error);
     }
 }
 

@@ -18,8 +18,8 @@ public sealed record PressureDropChange(string Side, string Tag, double Referenc
 
 /// <summary>
 /// Each side's measured pressure drop referred to one flow, ΔP_ref = ΔP·(ṁ_ref/ṁ)^1.8 (turbulent friction, ΔP ∝ ṁ^1.75–2;
-/// common practice), compared between the first and the last week of the current cycle (since the last logged cleaning
-/// in the data, else the data's start). Samples at downtime or with a missing measurement are left out.
+/// common practice), compared between the first and the last week of the current cycle with data (since the last logged
+/// cleaning, else the data's start). Samples at downtime or with a missing measurement are left out.
 /// </summary>
 public static class PressureDropTrend
 {
@@ -41,6 +41,9 @@ public static class PressureDropTrend
             var gridEnd = data.IntervalStart(data.IntervalCount);
             var start = x.Maintenance.Where(m => m.IsCleaning && m.Date < gridEnd).Select(m => (DateTimeOffset?)m.Date).LastOrDefault() ?? data.GridStart;
             double Referred(int k) => dp[k] * Math.Pow(reference / flow[k], FlowExponent);
+            // the cycle's first week with data (a window may start after the cleaning)
+            if (running.FirstOrDefault(k => data.IntervalStart(k) >= start, -1) is var firstIndex && firstIndex < 0) continue;
+            start = data.IntervalStart(firstIndex);
             var first = running.Where(k => data.IntervalStart(k) >= start && data.IntervalStart(k) < start + Week).Select(Referred).ToList();
             var end = data.IntervalStart(running[^1]);
             var last = running.Where(k => data.IntervalStart(k) > end - Week).Select(Referred).ToList();
