@@ -10,8 +10,12 @@ namespace FoulingWatch.Analysis;
 /// <param name="ReferenceFlow">Mass flow the drops are referred to (kg/s): the design flow, else the median flow.</param>
 /// <param name="First">Median referred drop (Pa) over the first week from <paramref name="From"/>.</param>
 /// <param name="Last">Median referred drop (Pa) over the last week to <paramref name="To"/>.</param>
+/// <param name="DepositFromDrop">Deposit thickness (m) that the drop's rise means in the tube bore; null unless the tube
+/// diameter is configured.</param>
+/// <param name="DepositFromRf">Deposit thickness (m) that Rf's rise over the same weeks means at the configured deposit
+/// conductivity, δ = ΔRf·k; null unless configured.</param>
 public sealed record PressureDropChange(string Side, string Tag, double ReferenceFlow, DateTimeOffset From, double First,
-    DateTimeOffset To, double Last, string Statement)
+    DateTimeOffset To, double Last, string Statement, double? DepositFromDrop = null, double? DepositFromRf = null)
 {
     public double Change => Last / First - 1;
 }
@@ -54,9 +58,41 @@ public static class PressureDropTrend
                 $"{side}-side pressure drop at {reference * 3.6:0.#} t/h: {unit.FromSi(a):0.###} → {unit.FromSi(b):0.###} {unit.Symbol} ({b / a - 1:+0%;-0%}) " +
                 $"from the week of {SiteCalendar.Date(start, zone)} to that of {SiteCalendar.Date(end, zone)}") +
                 (b / a - 1 > 0.15 ? "; rising with deposits on this side, or a partly closed valve" : "");
-            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text));
+            var (fromDrop, fromRf, comparison) = Deposits(stream, samples, data, start, end, b / a);
+            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text + comparison, fromDrop, fromRf));
         }
         return list;
+    }
+
+    /// <summary>
+    /// The deposit the two signals mean: from the drop, in a tube of bore D at a fixed flow ΔP ∝ D^−4.75 (Darcy–Weisbach
+    /// with Blasius friction), so a ratio r means a layer δ = (D/2)·(1 − r^(−1/4.75)); from Rf, δ = ΔRf·k_deposit over the
+    /// same weeks (a thin layer's conduction resistance). Two signals that disagree by more than a factor of two (and
+    /// 0.02 mm) are named: heat-transfer loss without a narrowing bore points at the instruments, a narrowing bore without
+    /// it at a more conductive deposit, debris or a valve.
+    /// </summary>
+    private static (double? FromDrop, double? FromRf, string Text) Deposits(Ingest.Configuration.StreamConfiguration stream,
+        IReadOnlyList<SampleResult> samples, IngestResult data, DateTimeOffset start, DateTimeOffset end, double ratio)
+    {
+        if (stream.TubeInnerDiameter is not { } bore || stream.DepositConductivity is not { } k) return (null, null, "");
+        var fromDrop = ratio > 1 ? bore / 2 * (1 - Math.Pow(ratio, -1 / 4.75)) : 0;
+        double? WeekRf(Func<DateTimeOffset, bool> inWeek)
+        {
+            var v = samples.Where(s => s.Status == SampleStatus.Ok && inWeek(s.Timestamp) && double.IsFinite(s.Evaluation.FoulingResistance))
+                .Select(s => s.Evaluation.FoulingResistance).ToList();
+            return v.Count < 5 ? null : Median(v);
+        }
+        var rfFirst = WeekRf(t => t >= start && t < start + Week);
+        var rfLast = WeekRf(t => t > end - Week && t <= end);
+        if (rfFirst is null || rfLast is null) return (fromDrop, null, "");
+        var fromRf = Math.Max(0, rfLast.Value - rfFirst.Value) * k;
+        var text = string.Create(CultureInfo.InvariantCulture,
+            $"; deposit about {fromDrop * 1e3:0.00} mm from the drop, {fromRf * 1e3:0.00} mm from Rf at {k:0.##} W/mK");
+        const double floor = 2e-5;
+        if (fromRf > 2 * fromDrop + floor) text += ": the heat-transfer loss is not matched by a narrowing bore; check the temperature and flow instruments";
+        else if (fromDrop > 2 * fromRf + floor) text += ": the bore narrows more than Rf says; a more conductive deposit, debris, or a partly closed valve";
+        else text += ": the two agree";
+        return (fromDrop, fromRf, text);
     }
 
     private static double Median(IEnumerable<double> values)

@@ -106,7 +106,9 @@ public sealed record StreamConfiguration(
     double PressurePascals,
     TagReference? PressureTag,
     double? DesignFlow,
-    TagReference? PressureDropTag = null);
+    TagReference? PressureDropTag = null,
+    double? TubeInnerDiameter = null,
+    double? DepositConductivity = null);
 
 public enum DutyBasis { Hot, Cold, Mean, Reconciled }
 

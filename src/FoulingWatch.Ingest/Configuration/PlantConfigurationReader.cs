@@ -602,11 +602,17 @@ public static partial class PlantConfigurationReader
         var inlet = ReadTag(n.Object("inlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
         var outlet = ReadTag(n.Object("outlet", required: true), Dimension.Temperature, atmosphere, 213.15, 1173.15);
         var design = n.Quantity("designFlow", Dimension.MassFlow, minSi: 0, exclusiveMin: true, maxSi: 1e5);
-        // a pressure difference across the side: no gauge offset, so "barg" reads as "bar"
-        var pressureDrop = n.Has("pressureDrop") ? ReadTag(n.Object("pressureDrop")!, Dimension.Pressure, 0, 0, 1e7) : null;
+        // a pressure difference across the side: no gauge offset, so "barg" reads as "bar"; with the tube bore and the
+        // deposit's conductivity, the drop's rise is turned into a deposit thickness to set beside Rf's
+        var dpNode = n.Has("pressureDrop") ? n.Object("pressureDrop") : null;
+        var bore = dpNode?.Quantity("tubeInnerDiameter", Dimension.Length, minSi: 0.002, maxSi: 0.1);
+        var depositK = dpNode?.Quantity("depositConductivity", Dimension.ThermalConductivity, minSi: 0.01, maxSi: 10);
+        if (dpNode is not null && side == ExchangerSide.Shell && bore is not null)
+            dpNode.Error("tubeInnerDiameter", "applies to the tube side only; leave it out on the shell side.");
+        var pressureDrop = dpNode is null ? null : ReadTag(dpNode, Dimension.Pressure, 0, 0, 1e7);
         n.Done();
         if (side is null || fluid is null || flow is null || inlet is null || outlet is null) return null;
-        return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design, pressureDrop);
+        return new StreamConfiguration(stream, side.Value, fluid, flow, inlet, outlet, pressure, pressureTag, design, pressureDrop, bore, depositK);
     }
 
     private static double? ReadPressure(JsonNode n, string key, double atmosphere)

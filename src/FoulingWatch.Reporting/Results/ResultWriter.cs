@@ -138,6 +138,8 @@ public static class ResultWriter
                 to = SiteCalendar.Date(p.To, r.Configuration.Site.TimeZone),
                 last_pa = NumberText.Json(p.Last),
                 change = NumberText.Json(p.Change),
+                deposit_m_from_drop = p.DepositFromDrop is { } dd ? NumberText.Json(dd) : null,
+                deposit_m_from_rf = p.DepositFromRf is { } dr ? NumberText.Json(dr) : null,
                 statement = p.Statement,
             }),
             instrument_drift = x.History.Drift is not { } d ? null : new

@@ -45,5 +45,16 @@ public class PressureDropTests
         Assert.StartsWith("tube-side pressure drop at 108 t/h: 0.512 → 0.588 bar (+15%)", dpChange.Statement);
         // the raw readings swing far more than the rise: without referring them to one flow the trend is hidden
         Assert.True(raw.Max() / raw.Min() > 2, $"raw swing {raw.Max() / raw.Min():0.00}");
+
+        // With the tube bore and a deposit conductivity the rise becomes a thickness (analytic): r = 0.58826/0.51160,
+        // δ = (15.75 mm/2)·(1 − r^(−1/4.75)) = 0.2281 mm; Rf rose 1.5e-5·23 = 3.45e-4 m²K/W, δ = 3.45e-4·0.2 = 0.069 mm:
+        // the bore narrows more than Rf says, and the statement names it.
+        File.WriteAllText(plant.ConfigPath, config.Replace("\"unit\": \"bar\" }",
+            "\"unit\": \"bar\", \"tubeInnerDiameter\": \"15.75 mm\", \"depositConductivity\": \"0.2 W/mK\" }"));
+        var withBore = Assert.Single(Assert.Single(plant.Analyse().Exchangers).PressureDrops);
+        Assert.Equal(2.281e-4, withBore.DepositFromDrop!.Value, 2e-6);
+        Assert.Equal(6.9e-5, withBore.DepositFromRf!.Value, 1e-6);
+        Assert.EndsWith("deposit about 0.23 mm from the drop, 0.07 mm from Rf at 0.2 W/mK: the bore narrows more than Rf says; " +
+            "a more conductive deposit, debris, or a partly closed valve", withBore.Statement);
     }
 }
