@@ -72,23 +72,29 @@ public class ReportTests(SampleRun run) : IClassFixture<SampleRun>
         Assert.True(width.Success, "the report's page-width probe did not run");
         Assert.True(int.Parse(width.Groups[1].Value) <= int.Parse(width.Groups[2].Value), $"page {width.Groups[1].Value} px wide in a {width.Groups[2].Value} px window");
 
-        var pdf = Path.Combine(run.Out, "report-print.pdf");
-        Headless(html, "--no-pdf-header-footer", $"--print-to-pdf={pdf}");
-        Assert.True(File.Exists(pdf) && new FileInfo(pdf).Length > 10_000, "chromium wrote no PDF");
-        var psi = new ProcessStartInfo("/usr/bin/pdftotext") { RedirectStandardOutput = true, UseShellExecute = false };
-        psi.ArgumentList.Add(pdf);
-        psi.ArgumentList.Add("-");
-        using var p = Process.Start(psi)!;
-        var text = p.StandardOutput.ReadToEnd();
-        p.WaitForExit();
         // whitespace and hyphens aside: pdftotext joins a word hyphenated at a line end ("2026-" + "04-13" → "202604-13")
         static string Squeeze(string s) => Regex.Replace(s, "[\\s\\-‐]+", "");
-        var printed = Squeeze(text);
         var plan = Regex.Match(File.ReadAllText(html), "<table class=\"plan\" id=\"plan-table\">.*?</table>", RegexOptions.Singleline).Value;
         var notes = Regex.Matches(plan, "<td(?: class=\"warn\")?>([^<]*)</td></tr>").Select(m => System.Net.WebUtility.HtmlDecode(m.Groups[1].Value))
             .Where(n => n.Length > 0).ToList();
         Assert.NotEmpty(notes);
-        foreach (var note in notes) Assert.Contains(Squeeze(note), printed);
+        // A4 portrait as the report asks, and A4 landscape (a copy whose page rule says so, as a user's print dialog would)
+        var landscape = Path.Combine(run.Out, "report-landscape.html");
+        File.WriteAllText(landscape, File.ReadAllText(html).Replace("@page{size:A4;", "@page{size:A4 landscape;"));
+        Assert.Contains("@page{size:A4 landscape;", File.ReadAllText(landscape));
+        foreach (var (page, name) in new[] { (html, "portrait"), (landscape, "landscape") })
+        {
+            var pdf = Path.Combine(run.Out, $"report-{name}.pdf");
+            Headless(page, "--no-pdf-header-footer", $"--print-to-pdf={pdf}");
+            Assert.True(File.Exists(pdf) && new FileInfo(pdf).Length > 10_000, $"chromium wrote no {name} PDF");
+            var psi = new ProcessStartInfo("/usr/bin/pdftotext") { RedirectStandardOutput = true, UseShellExecute = false };
+            psi.ArgumentList.Add(pdf);
+            psi.ArgumentList.Add("-");
+            using var p = Process.Start(psi)!;
+            var printed = Squeeze(p.StandardOutput.ReadToEnd());
+            p.WaitForExit();
+            foreach (var note in notes) Assert.True(printed.Contains(Squeeze(note), StringComparison.Ordinal), $"{name}: a plan note is cut: {note}");
+        }
     }
 
     [Fact]
