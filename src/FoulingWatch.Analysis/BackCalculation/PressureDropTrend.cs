@@ -14,8 +14,11 @@ namespace FoulingWatch.Analysis;
 /// diameter is configured.</param>
 /// <param name="DepositFromRf">Deposit thickness (m) that Rf's rise over the same weeks means at the configured deposit
 /// conductivity, δ = ΔRf·k; null unless configured.</param>
+/// <param name="CleanRatio">Median of measured over clean drop (tube side, from the geometry method's bundle) over the
+/// last week; null without a geometry.</param>
 public sealed record PressureDropChange(string Side, string Tag, double ReferenceFlow, DateTimeOffset From, double First,
-    DateTimeOffset To, double Last, string Statement, double? DepositFromDrop = null, double? DepositFromRf = null)
+    DateTimeOffset To, double Last, string Statement, double? DepositFromDrop = null, double? DepositFromRf = null,
+    double? CleanRatio = null)
 {
     public double Change => Last / First - 1;
 }
@@ -59,7 +62,9 @@ public static class PressureDropTrend
                 $"from the week of {SiteCalendar.Date(start, zone)} to that of {SiteCalendar.Date(end, zone)}") +
                 (b / a - 1 > 0.15 ? "; rising with deposits on this side, or a partly closed valve" : "");
             var (fromDrop, fromRf, comparison) = Deposits(stream, samples, data, start, end, b / a);
-            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text + comparison, fromDrop, fromRf));
+            var cleanRatio = side == "tube" ? CleanRatio(x, stream, samples, dp, flow, running.Where(k => data.IntervalStart(k) > end - Week)) : null;
+            if (cleanRatio is { } cr) comparison += string.Create(CultureInfo.InvariantCulture, $"; measured over clean (geometry) {cr:0.00} in the last week");
+            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text + comparison, fromDrop, fromRf, cleanRatio));
         }
         return list;
     }
@@ -93,6 +98,29 @@ public static class PressureDropTrend
         else if (fromDrop > 2 * fromRf + floor) text += ": the bore narrows more than Rf says; a more conductive deposit, debris, or a partly closed valve";
         else text += ": the two agree";
         return (fromDrop, fromRf, text);
+    }
+
+    /// <summary>Measured over clean tube-side drop, the clean one from the geometry method's bundle at each interval's flow
+    /// and tube-side bulk temperature (<see cref="Core.Exchangers.ShellAndTubeGeometry.TubePressureDrop"/>).</summary>
+    private static double? CleanRatio(ExchangerConfiguration x, StreamConfiguration tube, IReadOnlyList<SampleResult> samples,
+        double[] dp, double[] flow, IEnumerable<int> lastWeek)
+    {
+        if (x.Clean is not GeometryCleanReference g || tube.Fluid is not Core.FluidModels.ITransportFluid fluid) return null;
+        var hot = ReferenceEquals(tube, x.Hot);
+        var ratios = new List<double>();
+        foreach (var k in lastWeek)
+        {
+            var m = samples[k].Evaluation.Measurements;
+            if (m is null) continue;
+            var bulk = hot ? 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]) : 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]);
+            try
+            {
+                var clean = g.Geometry.TubePressureDrop(flow[k], fluid, Core.Quantities.Temperature.FromKelvin(bulk), new Core.Quantities.Pressure(tube.PressurePascals));
+                if (clean > 0) ratios.Add(dp[k] / clean);
+            }
+            catch (Core.Quantities.QuantityOutOfRangeException) { }
+        }
+        return ratios.Count < 5 ? null : Median(ratios);
     }
 
     private static double Median(IEnumerable<double> values)

@@ -61,6 +61,23 @@ public sealed record ShellAndTubeGeometry(double ShellDiameter, double TubeOuter
         return FilmCorrelations.Kern(reynolds, pr) * k / EquivalentDiameter;
     }
 
+    /// <summary>
+    /// Clean tube-side pressure drop (Pa) at a mass flow (kg/s): friction in the tubes by Darcy–Weisbach, f = 64/Re when
+    /// laminar and Petukhov's smooth-tube f from Re 3000 (linear between), plus four velocity heads per pass for the
+    /// return (Kern's rule, common practice): ΔP = (f·N_p·L/Di + 4·N_p)·ρ·v²/2.
+    /// </summary>
+    public double TubePressureDrop(double massFlow, ITransportFluid fluid, Temperature bulk, Pressure pressure)
+    {
+        var rho = fluid.Density(bulk, pressure) ?? throw new QuantityOutOfRangeException("density of " + fluid.Description, double.NaN, "kg/m3", "a fluid model that knows its density");
+        var mu = fluid.Viscosity(bulk, pressure);
+        var g = massFlow / TubeFlowArea;
+        var re = g * TubeInnerDiameter / mu;
+        var f = re <= 2300 ? 64 / re : re >= 3000 ? FilmCorrelations.PetukhovFriction(re)
+            : 64 / 2300.0 + (re - 2300) / 700 * (FilmCorrelations.PetukhovFriction(3000) - 64 / 2300.0);
+        var head = g * g / (2 * rho);
+        return (f * TubePasses * TubeLength / TubeInnerDiameter + 4 * TubePasses) * head;
+    }
+
     /// <summary>Clean U referred to the outside surface: 1/U = 1/h_o + R_wall + (Do/Di)/h_i.</summary>
     public double CleanU(double hTube, double hShell) =>
         1 / (1 / hShell + WallResistance + TubeOuterDiameter / TubeInnerDiameter / hTube);

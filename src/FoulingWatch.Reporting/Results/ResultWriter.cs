@@ -140,6 +140,7 @@ public static class ResultWriter
                 change = NumberText.Json(p.Change),
                 deposit_m_from_drop = p.DepositFromDrop is { } dd ? NumberText.Json(dd) : null,
                 deposit_m_from_rf = p.DepositFromRf is { } dr ? NumberText.Json(dr) : null,
+                measured_over_clean = p.CleanRatio is { } cr ? NumberText.Json(cr) : null,
                 statement = p.Statement,
             }),
             instrument_drift = x.History.Drift is not { } d ? null : new

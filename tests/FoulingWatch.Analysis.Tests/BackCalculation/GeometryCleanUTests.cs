@@ -34,7 +34,7 @@ public class GeometryCleanUTests
             var crude = new PetroleumLiquidTransport(new KeslerLeePetroleumLiquid(0.85, 11.8), 0.85, new WaltherViscosity(313.15, 9e-6, 373.15, 2.6e-6));
             var model = new GeometryCleanU(new GeometryCleanReference(g), water, 3e5, crude, 8e5);
             double Rf(double d) => 1e-5 + 4e-6 * d;
-            var csv = new StringBuilder("Timestamp,FH,TH1,TH2,FC,TC1,TC2\n");
+            var csv = new StringBuilder("Timestamp,FH,TH1,TH2,FC,TC1,TC2,DPT\n");
             var start = new DateTimeOffset(2026, 3, 1, 0, 0, 0, TimeSpan.Zero);
             var pw = new Pressure(3e5);
             var pc = new Pressure(8e5);
@@ -56,7 +56,9 @@ public class GeometryCleanUTests
                     r = Rating.Rate(Counterflow.Instance, u * g.OutsideArea, mh * cph, mc * cpc, Temperature.FromCelsius(thi), Temperature.FromCelsius(tci));
                     (tho, tco) = (r.HotOutlet.Celsius, r.ColdOutlet.Celsius);
                 }
-                csv.Append(FormattableString.Invariant($"{start.AddHours(h):yyyy-MM-ddTHH:mm:ssZ},{mh:R},{thi:R},{tho:R},{mc:R},{tci:R},{tco:R}\n"));
+                // the tube-side drop: the clean one at this flow and bulk temperature, 10 % up over the 40 days
+                var dpClean = g.TubePressureDrop(mc, water, Temperature.FromCelsius(0.5 * (tci + tco)), pw);
+                csv.Append(FormattableString.Invariant($"{start.AddHours(h):yyyy-MM-ddTHH:mm:ssZ},{mh:R},{thi:R},{tho:R},{mc:R},{tci:R},{tco:R},{dpClean * (1 + 0.1 * d / 40) / 1e3:R}\n"));
             }
             File.WriteAllText(Path.Combine(dir, "export.csv"), csv.ToString());
             File.WriteAllText(Path.Combine(dir, "plant.json"), $$"""
@@ -68,7 +70,8 @@ public class GeometryCleanUTests
                     "hot":  { "side": "shell", "fluid": {{Crude}}, "pressure": "8 bar", "flow": { "tag": "FH", "unit": "kg/s" },
                               "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" } },
                     "cold": { "side": "tube", "fluid": { "model": "water" }, "pressure": "3 bar", "flow": { "tag": "FC", "unit": "kg/s" },
-                              "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" } },
+                              "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" },
+                              "pressureDrop": { "tag": "DPT", "unit": "kPa" } },
                     "clean": { "method": "geometry", {{Geometry}} },
                     "maintenance": [ { "date": "2026-03-01", "action": "cleaned" } ]
                   } ]
@@ -80,6 +83,10 @@ public class GeometryCleanUTests
             var worst = ok.Max(s => Math.Abs(s.Evaluation.FoulingResistance - Rf((s.Timestamp - start).TotalDays)));
             Assert.True(worst < 2e-7, $"worst Rf error {worst:G3} m2K/W");
             Assert.StartsWith("geometry: 300 tubes 19.05/15.75 mm", x.History.CleanReference.Description);
+            // measured over clean drop in the last week (hours 33 d 1 h … 39 d 23 h): 1 + 0.1·36.48/40 = 1.0912 at its middle
+            var dp = Assert.Single(x.PressureDrops);
+            Assert.Equal(1 + 0.1 * ((33 + 1.0 / 24 + 39 + 23.0 / 24) / 2) / 40, dp.CleanRatio!.Value, 3);
+            Assert.Contains("measured over clean (geometry) 1.09 in the last week", dp.Statement);
         }
         finally { Directory.Delete(dir, recursive: true); }
     }

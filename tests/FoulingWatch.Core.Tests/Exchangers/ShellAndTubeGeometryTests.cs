@@ -5,8 +5,9 @@ using FoulingWatch.Core.Quantities;
 namespace FoulingWatch.Core.Tests.Exchangers;
 
 /// <summary>A fluid with fixed transport properties, so that the geometry and the correlations are checked alone.</summary>
-internal sealed class FixedFluid(double mu, double k, double cp) : ITransportFluid
+internal sealed class FixedFluid(double mu, double k, double cp, double? rho = null) : ITransportFluid
 {
+    public double? Density(Temperature temperature, Pressure pressure) => rho;
     public string Description => "fixed properties";
     public TemperatureRange Validity => new(200, 800);
     public double SpecificEnthalpy(Temperature temperature, Pressure pressure) => cp * temperature.Kelvin;
@@ -53,5 +54,16 @@ public class ShellAndTubeGeometryTests
     {
         Assert.Equal(344.3, Bundle.TubeCapacity, 1);
         Assert.Equal(87.563, Bundle.OutsideArea, 3);
+    }
+
+    // Darcy–Weisbach with Petukhov's friction and four velocity heads per pass for the returns (Kern's rule), by hand:
+    // G = 20/0.029224 = 684.36 kg/m²s, Re = 13473, f = 0.029005, ρv²/2 = G²/(2·995) = 235.35 Pa,
+    // ΔP = (0.029005·2·4.877/0.01575 + 4·2)·235.35 = 6110.5 Pa.
+    [Fact]
+    public void Clean_tube_side_pressure_drop_matches_a_hand_evaluation()
+    {
+        var dp = Bundle.TubePressureDrop(20, new FixedFluid(8e-4, 0.615, 4180, 995), Temperature.FromCelsius(40), new Pressure(3e5));
+        Assert.Equal(6110.5, dp, 1);
+        Assert.Throws<QuantityOutOfRangeException>(() => Bundle.TubePressureDrop(20, new FixedFluid(8e-4, 0.615, 4180), Temperature.FromCelsius(40), new Pressure(3e5)));
     }
 }
