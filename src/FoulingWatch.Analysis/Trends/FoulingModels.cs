@@ -1,5 +1,4 @@
 using MathNet.Numerics.LinearAlgebra;
-using MathNet.Numerics.Optimization;
 
 namespace FoulingWatch.Analysis.Trends;
 
@@ -156,7 +155,8 @@ public sealed record FitResult(double[] Parameters, double[] StandardErrors, Mat
     public double ResidualStandardDeviation => Math.Sqrt(WeightedResidualSumOfSquares / Math.Max(1, DegreesOfFreedom));
 }
 
-/// <summary>Weighted nonlinear least squares by MathNet's Levenberg–Marquardt minimiser, best of several starting points.</summary>
+/// <summary>Weighted nonlinear least squares by Levenberg–Marquardt (<see cref="LevenbergMarquardt"/>), best of several
+/// starting points.</summary>
 public static partial class LeastSquares
 {
     public static FitResult? Fit(FoulingModel model, double[] t, double[] y, double[] weights, IEnumerable<double[]>? starts = null) =>
@@ -166,28 +166,19 @@ public static partial class LeastSquares
         IEnumerable<double[]>? starts = null)
     {
         var n = t.Length;
-        var x = Vector<double>.Build.Dense(n, i => i);
-        var obs = Vector<double>.Build.DenseOfArray(whitening.Apply(y, weights));
-        var w = Vector<double>.Build.Dense(n, whitening.IsNone ? i => weights[i] : _ => 1.0);
+        var obs = whitening.Apply(y, weights);
+        if (ReferenceEquals(obs, y)) obs = (double[])y.Clone();
+        var w = whitening.IsNone ? weights : Enumerable.Repeat(1.0, n).ToArray();
         var k = model.ParameterNames.Length;
-        Vector<double> F(Vector<double> p, Vector<double> xs)
+        void Evaluate(ReadOnlySpan<double> p, Span<double> values, Span<double> jacobian)
         {
-            var pa = p.ToArray();
-            var f = new double[n];
-            for (var i = 0; i < n; i++) f[i] = model.Value(pa, t[i]);
-            return Vector<double>.Build.DenseOfArray(whitening.Apply(f, weights));
-        }
-        Matrix<double> J(Vector<double> p, Vector<double> xs)
-        {
-            var pa = p.ToArray();
-            var m = Matrix<double>.Build.Dense(n, k);
-            Span<double> g = stackalloc double[k];
             for (var i = 0; i < n; i++)
             {
-                model.Gradient(pa, t[i], g);
-                for (var j = 0; j < k; j++) m[i, j] = g[j];
+                values[i] = model.Value(p, t[i]);
+                model.Gradient(p, t[i], jacobian.Slice(i * k, k));
             }
-            return whitening.ApplyColumns(m, weights);
+            whitening.ApplyInPlace(values, weights);
+            for (var j = 0; j < k; j++) whitening.ApplyInPlace(jacobian, weights, k, j);
         }
         var lower = model.LowerBounds(t, y);
         var upper = model.UpperBounds(t, y);
@@ -196,18 +187,13 @@ public static partial class LeastSquares
         {
             if (lower is not null) for (var j = 0; j < k; j++) start[j] = Math.Max(start[j], lower[j] + 1e-12 * Math.Max(1, Math.Abs(lower[j])));
             if (upper is not null) for (var j = 0; j < k; j++) start[j] = Math.Min(start[j], upper[j] - 1e-12 * Math.Max(1, Math.Abs(upper[j])));
-            try
-            {
-                var objective = ObjectiveFunction.NonlinearModel(F, J, x, obs, w);
-                var solver = new LevenbergMarquardtMinimizer(initialMu: 1e-3, gradientTolerance: 1e-18, stepTolerance: 1e-18, functionTolerance: 1e-22, maximumIterations: 2000);
-                var r = solver.FindMinimum(objective, Vector<double>.Build.DenseOfArray(start),
-                    lower is null ? null : Vector<double>.Build.DenseOfArray(lower), upper is null ? null : Vector<double>.Build.DenseOfArray(upper));
-                var p = r.MinimizingPoint.ToArray();
-                if (p.Any(v => !double.IsFinite(v))) continue;
-                var fit = Finish(model, t, y, weights, p, whitening);
-                if (fit is not null && (best is null || fit.WeightedResidualSumOfSquares < best.WeightedResidualSumOfSquares)) best = fit;
-            }
-            catch (Exception ex) when (ex is ArithmeticException or ArgumentException or InvalidOperationException or MaximumIterationsException) { }
+            var p = (double[])start.Clone();
+            var lm = new LevenbergMarquardt();
+            try { if (!lm.Minimise(Evaluate, obs, w, p, lower, upper)) continue; }
+            catch (Exception ex) when (ex is ArithmeticException or ArgumentException) { continue; }
+            if (p.Any(v => !double.IsFinite(v))) continue;
+            var fit = Finish(model, t, y, weights, p, whitening);
+            if (fit is not null && (best is null || fit.WeightedResidualSumOfSquares < best.WeightedResidualSumOfSquares)) best = fit;
         }
         return best;
     }

@@ -73,6 +73,21 @@ public sealed class Whitening
         return z;
     }
 
+    /// <summary>In place on every k-th element from <paramref name="offset"/> (one column of a row-major n × k matrix).</summary>
+    public void ApplyInPlace(Span<double> v, double[] weights, int stride = 1, int offset = 0)
+    {
+        if (IsNone) return;
+        var state = 0.0;
+        for (var i = 0; i < weights.Length; i++)
+        {
+            ref var x = ref v[i * stride + offset];
+            var predicted = _decay[i] * state;
+            var innovation = Math.Sqrt(weights[i]) * x - predicted;
+            x = innovation * _scale[i];
+            state = predicted + _gain[i] * innovation;
+        }
+    }
+
     public Matrix<double> ApplyColumns(Matrix<double> m, double[] weights)
     {
         if (IsNone) return m;

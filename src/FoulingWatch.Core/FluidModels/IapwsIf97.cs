@@ -84,21 +84,25 @@ public static class IapwsIf97
         var pi = p / 16.53;
         var tau = 1386.0 / t;
         double g = 0, gp = 0, gpp = 0, gt = 0, gtt = 0, gpt = 0;
-        var a = 7.1 - pi;
-        var b = tau - 1.222;
+        // Integer powers by multiplication from two short tables (a^0…a^32, b^-43…b^17): the 238 calls of Math.Pow per
+        // state were a third of the analysis's time; the results agree with them to about 1e-14 relative.
+        Span<double> aPow = stackalloc double[33];
+        Span<double> bPow = stackalloc double[61];
+        IntegerPowers(7.1 - pi, 0, aPow);
+        IntegerPowers(tau - 1.222, -43, bPow);
         for (var k = 0; k < N1.Length; k++)
         {
             int i = I1[k], j = J1[k];
             double n = N1[k];
-            var ai = Math.Pow(a, i);
-            var bj = Math.Pow(b, j);
+            var ai = aPow[i];
+            var bj = bPow[j + 43];
             g += n * ai * bj;
-            var aim1 = i == 0 ? 0.0 : i * Math.Pow(a, i - 1);
-            var bjm1 = j * Math.Pow(b, j - 1);
+            var aim1 = i == 0 ? 0.0 : i * aPow[i - 1];
+            var bjm1 = j * bPow[j + 42];
             gp += -n * aim1 * bj;
-            gpp += i < 2 ? 0.0 : n * i * (i - 1) * Math.Pow(a, i - 2) * bj;
+            gpp += i < 2 ? 0.0 : n * i * (i - 1) * aPow[i - 2] * bj;
             gt += n * ai * bjm1;
-            gtt += n * ai * j * (j - 1) * Math.Pow(b, j - 2);
+            gtt += n * ai * j * (j - 1) * bPow[j + 41];
             gpt += -n * aim1 * bjm1;
         }
         var rt = R * t;
@@ -137,20 +141,23 @@ public static class IapwsIf97
             g0tt += N0[k] * j * (j - 1) * Math.Pow(tau, j - 2);
         }
         double gr = 0, grp = 0, grpp = 0, grt = 0, grtt = 0, grpt = 0;
-        var b = tau - 0.5;
+        Span<double> piPow = stackalloc double[27];
+        Span<double> bPow = stackalloc double[61];
+        IntegerPowers(pi, -2, piPow);
+        IntegerPowers(tau - 0.5, -2, bPow);
         for (var k = 0; k < Nr.Length; k++)
         {
             int i = Ir[k], j = Jr[k];
             double n = Nr[k];
-            var pii = Math.Pow(pi, i);
-            var bj = Math.Pow(b, j);
-            var pim1 = i * Math.Pow(pi, i - 1);
-            var bjm1 = j * Math.Pow(b, j - 1);
+            var pii = piPow[i + 2];
+            var bj = bPow[j + 2];
+            var pim1 = i * piPow[i + 1];
+            var bjm1 = j * bPow[j + 1];
             gr += n * pii * bj;
             grp += n * pim1 * bj;
-            grpp += n * i * (i - 1) * Math.Pow(pi, i - 2) * bj;
+            grpp += n * i * (i - 1) * piPow[i] * bj;
             grt += n * pii * bjm1;
-            grtt += n * pii * j * (j - 1) * Math.Pow(b, j - 2);
+            grtt += n * pii * j * (j - 1) * bPow[j];
             grpt += n * pim1 * bjm1;
         }
         var rt = R * t;
@@ -162,6 +169,16 @@ public static class IapwsIf97
         var num = 1 + 2 * pi * grp + pi * pi * grp * grp;
         var den = 1 - pi * pi * grpp + Math.Pow(1 + pi * grp - tau * pi * grpt, 2) / (tau * tau * (g0tt + grtt));
         return new State(v, h, u, s, cp, Math.Sqrt(rt * num / den));
+    }
+
+    /// <summary>Fills powers[k] = x^(lowest + k) by multiplication outward from x^0 = 1.</summary>
+    private static void IntegerPowers(double x, int lowest, Span<double> powers)
+    {
+        var zero = -lowest;
+        powers[zero] = 1;
+        for (var k = zero + 1; k < powers.Length; k++) powers[k] = powers[k - 1] * x;
+        var inverse = 1 / x;
+        for (var k = zero - 1; k >= 0; k--) powers[k] = powers[k + 1] * inverse;
     }
 
     /// <summary>Saturation pressure p_s in MPa at T in K, 273.15 K ≤ T ≤ 647.096 K (release eq. 30).</summary>
