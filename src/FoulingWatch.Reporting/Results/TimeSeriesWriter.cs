@@ -22,33 +22,38 @@ public static class TimeSeriesWriter
 
     /// <param name="fitted">Fitted Rf per sample (same index), or null.</param>
     /// <param name="moneyPerJoule">Price of lost duty (currency per J), or null when the exchanger is not priced.</param>
+    /// <remarks>Formats each cell straight into UTF-8 bytes and streams them to the file in blocks: no string per cell and
+    /// no whole-file text in memory (the same bytes as formatting each value with "G9").</remarks>
     public static void Write(string path, ExchangerHistory history, IReadOnlyList<double>? fitted = null, double? moneyPerJoule = null)
     {
-        var sb = new StringBuilder(history.Samples.Count * 200);
-        sb.AppendJoin(',', ContractColumns.Concat(ExtraColumns)).Append('\n');
-        for (var k = 0; k < history.Samples.Count; k++)
+        AtomicFile.Write(path, stream =>
         {
-            var s = history.Samples[k];
-            var e = s.Evaluation;
-            var m = e.Measurements.Length == Measurement.Count ? e.Measurements : new double[Measurement.Count].Select(_ => double.NaN).ToArray();
-            string[] cells =
-            [
-                NumberText.Utc(s.Timestamp), s.Status.Key(), NumberText.Csv(e.Duty), NumberText.Csv(e.DutyHot), NumberText.Csv(e.DutyCold),
-                NumberText.Csv(e.UActual), NumberText.Csv(e.UClean), NumberText.Csv(e.FoulingResistance), NumberText.Csv(s.FoulingResistanceSigma),
-                NumberText.Csv(e.Cleanliness), NumberText.Csv(e.LostDuty),
-                NumberText.Csv(s.SigmaSystematic), NumberText.Csv(s.SigmaRandom),
-                NumberText.Csv(fitted is null ? double.NaN : fitted[k]), NumberText.Csv(e.BalanceMismatch), NumberText.Csv(e.Lmtd), NumberText.Csv(e.CorrectionFactor),
-                NumberText.Csv(e.DutyClean), NumberText.Csv(e.HotOutletClean), NumberText.Csv(e.ColdOutletClean),
-                .. m.Select(NumberText.Csv),
-                NumberText.Csv(moneyPerJoule is { } price && s.Status == SampleStatus.Ok ? Math.Max(0, e.LostDuty) * 86400 * price : double.NaN),
-                NumberText.Csv(e.Reconciliation?.GlobalTest ?? double.NaN),
-                e.Reconciliation is null ? "" : e.Reconciliation.GrossError ? "1" : "0",
-                .. (e.Reconciliation?.NormalisedAdjustments ?? new double[Measurement.Count].Select(_ => double.NaN).ToArray()).Select(NumberText.Csv),
-                Quote(e.Detail),
-            ];
-            sb.AppendJoin(',', cells).Append('\n');
-        }
-        AtomicFile.WriteAllText(path, sb.ToString());
+            var row = new CsvRowWriter(stream);
+            row.Text(string.Join(',', ContractColumns.Concat(ExtraColumns)));
+            row.End();
+            var none = Enumerable.Repeat(double.NaN, Measurement.Count).ToArray();
+            for (var k = 0; k < history.Samples.Count; k++)
+            {
+                var s = history.Samples[k];
+                var e = s.Evaluation;
+                var m = e.Measurements.Length == Measurement.Count ? e.Measurements : none;
+                row.Text(NumberText.Utc(s.Timestamp));
+                row.Text(s.Status.Key());
+                foreach (var v in (ReadOnlySpan<double>)[e.Duty, e.DutyHot, e.DutyCold, e.UActual, e.UClean, e.FoulingResistance,
+                             s.FoulingResistanceSigma, e.Cleanliness, e.LostDuty, s.SigmaSystematic, s.SigmaRandom,
+                             fitted is null ? double.NaN : fitted[k], e.BalanceMismatch, e.Lmtd, e.CorrectionFactor, e.DutyClean,
+                             e.HotOutletClean, e.ColdOutletClean])
+                    row.Number(v);
+                foreach (var v in m) row.Number(v);
+                row.Number(moneyPerJoule is { } price && s.Status == SampleStatus.Ok ? Math.Max(0, e.LostDuty) * 86400 * price : double.NaN);
+                row.Number(e.Reconciliation?.GlobalTest ?? double.NaN);
+                row.Text(e.Reconciliation is null ? "" : e.Reconciliation.GrossError ? "1" : "0");
+                foreach (var v in e.Reconciliation?.NormalisedAdjustments ?? none) row.Number(v);
+                row.Text(Quote(e.Detail));
+                row.End();
+            }
+            row.Flush();
+        });
     }
 
     private static string Quote(string? text) =>
@@ -66,11 +71,87 @@ public static class AtomicFile
         File.Move(temp, path, overwrite: true);
     }
 
+    /// <summary>Writes through a stream to a temporary file in the same folder, then renames it over the path.</summary>
+    public static void Write(string path, Action<Stream> write)
+    {
+        Directory.CreateDirectory(Path.GetDirectoryName(Path.GetFullPath(path))!);
+        var temp = path + ".tmp";
+        using (var stream = new FileStream(temp, FileMode.Create, FileAccess.Write, FileShare.None, 1 << 16)) write(stream);
+        File.Move(temp, path, overwrite: true);
+    }
+
     public static void WriteAllBytes(string path, byte[] bytes)
     {
         Directory.CreateDirectory(Path.GetDirectoryName(Path.GetFullPath(path))!);
         var temp = path + ".tmp";
         File.WriteAllBytes(temp, bytes);
         File.Move(temp, path, overwrite: true);
+    }
+}
+
+/// <summary>One CSV row at a time as UTF-8 bytes into a reused block: numbers as "G9" (empty when not finite), cells
+/// separated by commas, rows ended by LF.</summary>
+internal sealed class CsvRowWriter(Stream stream)
+{
+    private readonly byte[] _block = new byte[1 << 16];
+    private int _used;
+    private bool _first = true;
+
+    public void Number(double v)
+    {
+        Separate();
+        if (!double.IsFinite(v)) return;
+        Room(32);
+        if (!v.TryFormat(_block.AsSpan(_used), out var written, "G9", System.Globalization.CultureInfo.InvariantCulture))
+            throw new InvalidOperationException("a number did not fit its cell buffer");
+        _used += written;
+    }
+
+    public void Text(string text)
+    {
+        Separate();
+        Append(text);
+    }
+
+    public void End()
+    {
+        Room(1);
+        _block[_used++] = (byte)'\n';
+        _first = true;
+    }
+
+    public void Flush()
+    {
+        stream.Write(_block, 0, _used);
+        _used = 0;
+    }
+
+    private void Separate()
+    {
+        if (!_first)
+        {
+            Room(1);
+            _block[_used++] = (byte)',';
+        }
+        _first = false;
+    }
+
+    private void Append(string text)
+    {
+        var need = Encoding.UTF8.GetMaxByteCount(text.Length);
+        if (need > _block.Length)
+        {
+            Flush();
+            var bytes = Encoding.UTF8.GetBytes(text);
+            stream.Write(bytes);
+            return;
+        }
+        Room(need);
+        _used += Encoding.UTF8.GetBytes(text, _block.AsSpan(_used));
+    }
+
+    private void Room(int bytes)
+    {
+        if (_used + bytes > _block.Length) Flush();
     }
 }
