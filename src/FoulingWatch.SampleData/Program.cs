@@ -120,7 +120,18 @@ static double[] Operate(SampleExchanger x, double mHot, double mCold, double thi
     double Factor(double tubeBulkK) => waterScaling ? WaterGroup(tubeBulkK) / WaterGroup(x.TubeWaterDesignBulkC!.Value + 273.15) : 1;
     double U(double tubeBulkK) => 1 / (1 / (1 / (0.5 * film * Math.Pow(tubeDesign / tubeFlow, 0.8) * Factor(tubeBulkK)
         + 0.5 * film * Math.Pow(shellDesign / shellFlow, nShell))) + rf);
-    var u = U(tciC + 273.15 + 3);
+    // A bundle given by its geometry: both films from the correlations at the sides' bulk temperatures.
+    double GeometryU(double hotBulkK, double coldBulkK)
+    {
+        var g = x.Geometry!;
+        var (tubeFluid, shellFluid) = x.HotOnTube ? ((ITransportFluid)x.Hot, (ITransportFluid)x.Cold) : ((ITransportFluid)x.Cold, (ITransportFluid)x.Hot);
+        var (tubeBulk, shellBulk) = x.HotOnTube ? (hotBulkK, coldBulkK) : (coldBulkK, hotBulkK);
+        var (tubeP, shellP) = x.HotOnTube ? (p, pc) : (pc, p);
+        var hi = g.TubeFilm(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), tubeP, out _);
+        var ho = g.ShellFilm(shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), shellP, out _);
+        return 1 / (1 / g.CleanU(hi, ho) + rf);
+    }
+    var u = x.Geometry is null ? U(tciC + 273.15 + 3) : GeometryU(thiC + 273.15 - 20, tciC + 273.15 + 20);
     if (x.Hot is SteamPhaseChange steam)
     {
         var thi = steam.SaturationTemperature + new TemperatureDifference(5);
@@ -147,8 +158,9 @@ static double[] Operate(SampleExchanger x, double mHot, double mCold, double thi
         ch = mHot * x.Hot.MeanSpecificHeat(hIn, rr.HotOutlet, p);
         c2 = mCold * x.Cold.MeanSpecificHeat(cIn, rr.ColdOutlet, pc);
         if (waterScaling) u = U(0.5 * (cIn.Kelvin + rr.ColdOutlet.Kelvin));
+        if (x.Geometry is not null) u = GeometryU(0.5 * (hIn.Kelvin + rr.HotOutlet.Kelvin), 0.5 * (cIn.Kelvin + rr.ColdOutlet.Kelvin));
     }
-    if (waterScaling) rr = Rating.Rate(x.Arrangement, u * x.Area, ch, c2, hIn, cIn);
+    if (waterScaling || x.Geometry is not null) rr = Rating.Rate(x.Arrangement, u * x.Area, ch, c2, hIn, cIn);
     return [mHot, thiC, rr.HotOutlet.Celsius, mCold, tciC, rr.ColdOutlet.Celsius];
 }
 
