@@ -127,9 +127,8 @@ static double[] Operate(SampleExchanger x, double mHot, double mCold, double thi
         var (tubeFluid, shellFluid) = x.HotOnTube ? ((ITransportFluid)x.Hot, (ITransportFluid)x.Cold) : ((ITransportFluid)x.Cold, (ITransportFluid)x.Hot);
         var (tubeBulk, shellBulk) = x.HotOnTube ? (hotBulkK, coldBulkK) : (coldBulkK, hotBulkK);
         var (tubeP, shellP) = x.HotOnTube ? (p, pc) : (pc, p);
-        var hi = g.TubeFilm(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), tubeP, out _);
-        var ho = g.ShellFilm(shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), shellP, out _);
-        return 1 / (1 / g.CleanU(hi, ho) + rf);
+        var clean = g.CleanU(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), tubeP, shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), shellP);
+        return 1 / (1 / clean + rf);
     }
     var u = x.Geometry is null ? U(tciC + 273.15 + 3) : GeometryU(thiC + 273.15 - 20, tciC + 273.15 + 20);
     if (x.Hot is SteamPhaseChange steam)

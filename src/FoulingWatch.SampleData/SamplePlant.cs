@@ -9,8 +9,8 @@ namespace FoulingWatch.SampleData;
 /// and cp at its bulk temperature (Dittus–Boelter form), as a real cooling-water film does through the seasons. With
 /// <c>TubePressureDropBar</c> a differential-pressure tag across the tube side is written: that drop at design flow in a
 /// clean bundle, growing as the deposit (thickness Rf·0.2 W/mK on 15.75 mm tubes) narrows the bore, ΔP ∝ ṁ^1.8·D^−4.75.
-/// With <c>Geometry</c> the clean U is the bundle's own (Gnielinski in the tubes, Kern on the shell, both fluids' transport
-/// properties at their bulk temperatures) and <c>CleanU</c> is only a label.</remarks>
+/// With <c>Geometry</c> the clean U is the bundle's own (Gnielinski in the tubes, Bell–Delaware or Kern on the shell,
+/// Sieder–Tate wall correction, both fluids' transport properties at their bulk temperatures) and <c>CleanU</c> is only a label.</remarks>
 public sealed record SampleExchanger(
     string Id,
     string TagPrefix,
@@ -53,9 +53,10 @@ public static class SamplePlant
     public static IReadOnlyList<SampleExchanger> Area1 { get; } =
     [
         new("E-101", "101", new OneShellPassEvenTubePasses(4), 180, Assay(45, 11.8, 1.6, 0.85), Assay(32, 11.9, 9, 2.6),
-            false, 60 * Tph, 110 * Tph, 444, 200, 60,
+            false, 60 * Tph, 110 * Tph, 447, 200, 60,
             d => 8e-4 * (1 - Math.Exp(-d / 150.0)), [new(2025, 11, 20, 0, 0, 0, TimeSpan.Zero)], 11, 17, 8e5, 15e5,
-            Geometry: new ShellAndTubeGeometry(0.635, 0.01905, 0.01575, 6.096, 493, 0.02381, TubeLayout.Triangular, 4, 0.4, 50)),
+            Geometry: new ShellAndTubeGeometry(0.635, 0.01905, 0.01575, 6.096, 493, 0.02381, TubeLayout.Triangular, 4, 0.4, 50)
+                { Baffles = new BaffleDetails(0.25, SealingStripPairs: 2) }),
         new("E-102", "102", new ShellsInSeries(2), 300, KeslerLeePetroleumLiquid.FromApiGravity(35, 11.7), KeslerLeePetroleumLiquid.FromApiGravity(32, 11.9),
             false, 80 * Tph, 110 * Tph, 380, 260, 105,
             d => 5e-5 + 4e-6 * d, [new(2025, 10, 1, 0, 0, 0, TimeSpan.Zero), new(2026, 5, 14, 0, 0, 0, TimeSpan.Zero)], 13, 17, 8e5, 15e5,

@@ -164,16 +164,15 @@ public sealed class GeometryCleanU(GeometryCleanReference reference, ITransportF
     public string Description { get; } = FormattableString.Invariant(
         $"geometry: {reference.Geometry.TubeCount} tubes {reference.Geometry.TubeOuterDiameter * 1000:0.##}/{reference.Geometry.TubeInnerDiameter * 1000:0.##} mm × ") +
         FormattableString.Invariant($"{reference.Geometry.TubeLength:0.###} m, {reference.Geometry.TubePasses} pass(es), shell {reference.Geometry.ShellDiameter * 1000:0} mm; ") +
-        FormattableString.Invariant($"Gnielinski tube side, Kern shell side, wall {reference.Geometry.WallResistance:G3} m2K/W; ± {reference.RelativeUncertainty:P0} on 1/U");
+        FormattableString.Invariant($"Gnielinski tube side, {(reference.Geometry.Baffles is null ? "Kern" : "Bell–Delaware")} shell side, (μ/μw)^0.14 on both, wall {reference.Geometry.WallResistance:G3} m2K/W; ± {reference.RelativeUncertainty:P0} on 1/U");
 
     public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
     {
         if (!double.IsFinite(tubeBulk) || !double.IsFinite(shellBulk) || !(tubeFlow > 0) || !(shellFlow > 0)) return double.NaN;
         try
         {
-            var hi = _g.TubeFilm(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), new Pressure(tubePressure), out _);
-            var ho = _g.ShellFilm(shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), new Pressure(shellPressure), out _);
-            return _g.CleanU(hi, ho);
+            return _g.CleanU(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), new Pressure(tubePressure),
+                shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), new Pressure(shellPressure));
         }
         catch (QuantityOutOfRangeException) { return double.NaN; }
     }

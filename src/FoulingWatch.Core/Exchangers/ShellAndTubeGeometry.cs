@@ -53,12 +53,53 @@ public sealed record ShellAndTubeGeometry(double ShellDiameter, double TubeOuter
         return FilmCorrelations.TubeSide(reynolds, pr, TubeInnerDiameter / TubeLength) * k / TubeInnerDiameter;
     }
 
-    /// <summary>Shell-side film (W/(m²·K)) by Kern at a mass flow (kg/s) and the fluid's state.</summary>
+    /// <summary>Baffle cut and clearances: when given, the shell side is rated by Bell–Delaware instead of Kern.</summary>
+    public BaffleDetails? Baffles { get; init; }
+
+    /// <summary>The Bell–Delaware shell of this bundle (null when <see cref="Baffles"/> is not given); built on each call,
+    /// so that a copy of the record with other dimensions never sees a stale one.</summary>
+    public BellDelawareShell? BellDelaware => Baffles is null ? null : new BellDelawareShell(this, Baffles);
+
+    /// <summary>Shell-side film (W/(m²·K)) at a mass flow (kg/s) and the fluid's state: Bell–Delaware when the baffle
+    /// details are given, else Kern.</summary>
     public double ShellFilm(double massFlow, ITransportFluid fluid, Temperature bulk, Pressure pressure, out double reynolds)
     {
         var (mu, k, pr) = Transport(fluid, bulk, pressure);
+        if (BellDelaware is { } bd)
+        {
+            reynolds = bd.Reynolds(massFlow, mu);
+            return bd.Film(massFlow, mu, fluid.SpecificHeat(bulk, pressure), k);
+        }
         reynolds = massFlow / ShellCrossFlowArea * EquivalentDiameter / mu;
         return FilmCorrelations.Kern(reynolds, pr) * k / EquivalentDiameter;
+    }
+
+    /// <summary>
+    /// Clean U (outside surface) at both streams' flows and bulk states, each film corrected by Sieder and Tate's
+    /// (μ/μ_w)^0.14 at its wall temperature. The wall temperatures come from the uncorrected films: the temperature
+    /// difference between the streams divides over the resistances in series (one pass, common practice). A wall
+    /// temperature outside a fluid's model leaves that side uncorrected.
+    /// </summary>
+    public double CleanU(double tubeFlow, ITransportFluid tubeFluid, Temperature tubeBulk, Pressure tubePressure,
+        double shellFlow, ITransportFluid shellFluid, Temperature shellBulk, Pressure shellPressure)
+    {
+        var hi = TubeFilm(tubeFlow, tubeFluid, tubeBulk, tubePressure, out _);
+        var ho = ShellFilm(shellFlow, shellFluid, shellBulk, shellPressure, out _);
+        var ri = TubeOuterDiameter / TubeInnerDiameter / hi;
+        var ro = 1 / ho;
+        var total = ri + WallResistance + ro;
+        var difference = shellBulk.Kelvin - tubeBulk.Kelvin;
+        var tubeWall = Temperature.FromKelvin(tubeBulk.Kelvin + difference * ri / total);
+        var shellWall = Temperature.FromKelvin(shellBulk.Kelvin - difference * ro / total);
+        hi *= WallFactor(tubeFluid, tubeBulk, tubeWall, tubePressure);
+        ho *= WallFactor(shellFluid, shellBulk, shellWall, shellPressure);
+        return CleanU(hi, ho);
+    }
+
+    private static double WallFactor(ITransportFluid fluid, Temperature bulk, Temperature wall, Pressure pressure)
+    {
+        try { return FilmCorrelations.ViscosityRatioFactor(fluid.Viscosity(bulk, pressure), fluid.Viscosity(wall, pressure)); }
+        catch (QuantityOutOfRangeException) { return 1; }
     }
 
     /// <summary>

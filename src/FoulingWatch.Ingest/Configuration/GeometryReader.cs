@@ -27,6 +27,7 @@ public static partial class PlantConfigurationReader
         var baffles = n.Quantity("baffleSpacing", Dimension.Length, required: true, minSi: 0.02, maxSi: 10);
         var wall = n.Quantity("wallConductivity", Dimension.ThermalConductivity, minSi: 1, maxSi: 500) ?? 50;
         var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? GeometryCleanReference.DefaultUncertainty;
+        var details = ReadBaffleDetails(n, ds);
         var layout = layoutText.ToLowerInvariant() switch
         {
             "triangular" => TubeLayout.Triangular, "square" => TubeLayout.Square, "rotated-square" => TubeLayout.RotatedSquare, _ => (TubeLayout?)null,
@@ -42,11 +43,34 @@ public static partial class PlantConfigurationReader
         if (ds is null || dout is null || din is null || length is null || count is null || pitch is null || baffles is null || layout is null
             || din >= dout || pitch < 1.2 * dout)
             return null;
-        var g = new ShellAndTubeGeometry(ds.Value, dout.Value, din.Value, length.Value, count.Value, pitch.Value, layout.Value, passes, baffles.Value, wall);
+        var g = new ShellAndTubeGeometry(ds.Value, dout.Value, din.Value, length.Value, count.Value, pitch.Value, layout.Value, passes, baffles.Value, wall)
+            { Baffles = details };
         if (count > 1.05 * g.TubeCapacity)
             n.Error("tubeCount", FormattableString.Invariant($"{count} tubes do not fit a {ds * 1000:0} mm shell at this pitch and pass count (about {g.TubeCapacity:0} do); check the values."));
         if (area is { } a && Math.Abs(g.OutsideArea - a) > 0.15 * a)
             n.ErrorHere(FormattableString.Invariant($"the tubes' outside surface N·π·Do·L = {g.OutsideArea:0.#} m2 differs from the exchanger's area {a:0.#} m2 by more than 15 %; check the geometry or the area."));
         return new GeometryCleanReference(g, uncertainty);
+    }
+
+    /// <summary>With a baffle cut the shell side is rated by Bell–Delaware: cut 15–45 % of the shell diameter, clearances
+    /// up to 10 mm (tube and shell holes) and 100 mm (bundle to shell), sealing strips, end spacings; null without a cut.</summary>
+    private static BaffleDetails? ReadBaffleDetails(JsonNode n, double? shellDiameter)
+    {
+        var cut = n.Fraction("baffleCut", min: 0.15, max: 0.45);
+        var tubeHole = n.Quantity("tubeBaffleClearance", Dimension.Length, minSi: 0, maxSi: 0.01);
+        var shellGap = n.Quantity("shellBaffleClearance", Dimension.Length, minSi: 0, maxSi: 0.01);
+        var bundleGap = n.Quantity("bundleShellClearance", Dimension.Length, minSi: 0, maxSi: 0.1);
+        var strips = n.Integer("sealingStripPairs", min: 0, max: 20);
+        var inlet = n.Quantity("inletBaffleSpacing", Dimension.Length, minSi: 0.02, maxSi: 10);
+        var outlet = n.Quantity("outletBaffleSpacing", Dimension.Length, minSi: 0.02, maxSi: 10);
+        if (cut is null)
+        {
+            if (tubeHole is not null || shellGap is not null || bundleGap is not null || inlet is not null || outlet is not null || strips is not null)
+                n.ErrorHere("clearances, sealing strips and end spacings are used by the Bell–Delaware shell side, which needs \"baffleCut\" (e.g. \"25 %\").");
+            return null;
+        }
+        if (bundleGap is { } gap && shellDiameter is { } ds && gap >= 0.2 * ds)
+            n.Error("bundleShellClearance", "must be well below the shell diameter (it is the gap between the outer tubes and the shell).");
+        return new BaffleDetails(cut.Value, tubeHole, shellGap, bundleGap, strips ?? 0, inlet, outlet);
     }
 }

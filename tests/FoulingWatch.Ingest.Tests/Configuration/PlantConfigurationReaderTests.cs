@@ -108,6 +108,19 @@ public class PlantConfigurationReaderTests
         Assert.Contains(ex.Errors, e => e.Path == "exchangers[0].clean" && e.Message.Contains("cold.fluid", StringComparison.Ordinal));
     }
 
+    // Bell–Delaware's clearances mean nothing without a baffle cut, and a cut outside 15–45 % is outside the method.
+    [Fact]
+    public void Bell_Delaware_details_without_a_cut_or_with_an_impossible_cut_are_refused()
+    {
+        var geometry = "\"method\": \"geometry\", \"shellDiameter\": \"489 mm\", \"tubeOuterDiameter\": \"19.05 mm\", " +
+            "\"tubeInnerDiameter\": \"15.75 mm\", \"tubeLength\": \"4.877 m\", \"tubeCount\": 300, \"tubePitch\": \"23.81 mm\", " +
+            "\"tubePasses\": 2, \"baffleSpacing\": \"0.3 m\"";
+        var noCut = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"", geometry + ", \"sealingStripPairs\": 2"));
+        Assert.Contains(noCut.Errors, e => e.Path == "exchangers[0].clean" && e.Message.Contains("needs \"baffleCut\"", StringComparison.Ordinal));
+        var wideCut = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"", geometry + ", \"baffleCut\": \"60 %\""));
+        Assert.Contains(wideCut.Errors, e => e.Path == "exchangers[0].clean.baffleCut");
+    }
+
     // A petroleum liquid's viscosity needs two points with the lower viscosity at the higher temperature.
     [Fact]
     public void A_petroleum_viscosity_that_rises_with_temperature_is_refused()
