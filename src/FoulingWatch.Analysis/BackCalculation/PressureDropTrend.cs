@@ -21,6 +21,20 @@ public sealed record PressureDropChange(string Side, string Tag, double Referenc
     double? CleanRatio = null)
 {
     public double Change => Last / First - 1;
+
+    /// <summary>Measured over clean drop per interval (NaN where the unit was down or a value missing): the clean drop
+    /// from the geometry method's bundle when there is one, else the cycle's first week after its cleaning referred to
+    /// the interval's flow (<see cref="RatioBasis"/>).</summary>
+    public double[] Ratio { get; init; } = [];
+
+    /// <summary>What the clean drop of <see cref="Ratio"/> is.</summary>
+    public string RatioBasis { get; init; } = "";
+
+    /// <summary>Slope of the daily median ratio over the current cycle (per day) and its standard error (AR(1) errors),
+    /// or null with fewer than 7 days.</summary>
+    public double? RatioSlopePerDay { get; init; }
+
+    public double? RatioSlopeSigma { get; init; }
 }
 
 /// <summary>
@@ -62,9 +76,18 @@ public static class PressureDropTrend
                 $"from the week of {SiteCalendar.Date(start, zone)} to that of {SiteCalendar.Date(end, zone)}") +
                 (b / a - 1 > 0.15 ? "; rising with deposits on this side, or a partly closed valve" : "");
             var (fromDrop, fromRf, comparison) = Deposits(stream, samples, data, start, end, b / a);
-            var cleanRatio = side == "tube" ? CleanRatio(x, stream, samples, dp, flow, running.Where(k => data.IntervalStart(k) > end - Week)) : null;
+            var (ratio, basis) = Ratios(x, stream, side, data, samples, dp, flow, running, reference);
+            double? cleanRatio = basis == GeometryBasis
+                ? MedianOrNull(running.Where(k => data.IntervalStart(k) > end - Week).Select(k => ratio[k]).Where(double.IsFinite))
+                : null;
             if (cleanRatio is { } cr) comparison += string.Create(CultureInfo.InvariantCulture, $"; measured over clean (geometry) {cr:0.00} in the last week");
-            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text + comparison, fromDrop, fromRf, cleanRatio));
+            var (slope, sigma) = RatioTrend(data, ratio, start);
+            if (slope is { } sl && sigma is { } sg)
+                comparison += string.Create(CultureInfo.InvariantCulture, $"; measured over clean moving {sl * 100:+0.000;-0.000} ± {sg * 100:0.000} %/day over the cycle");
+            list.Add(new PressureDropChange(side, tag.Tag, reference, start, a, end, b, text + comparison, fromDrop, fromRf, cleanRatio)
+            {
+                Ratio = ratio, RatioBasis = basis, RatioSlopePerDay = slope, RatioSlopeSigma = sigma,
+            });
         }
         return list;
     }
@@ -100,27 +123,83 @@ public static class PressureDropTrend
         return (fromDrop, fromRf, text);
     }
 
-    /// <summary>Measured over clean tube-side drop, the clean one from the geometry method's bundle at each interval's flow
-    /// and tube-side bulk temperature (<see cref="Core.Exchangers.ShellAndTubeGeometry.TubePressureDrop"/>).</summary>
-    private static double? CleanRatio(ExchangerConfiguration x, StreamConfiguration tube, IReadOnlyList<SampleResult> samples,
-        double[] dp, double[] flow, IEnumerable<int> lastWeek)
+    public const string GeometryBasis = "the clean drop of the bundle geometry at each interval's flow and temperature";
+    public const string CleaningBasis = "the first week after the cycle's cleaning, referred to each interval's flow";
+
+    /// <summary>
+    /// Measured over clean drop per interval. With the geometry method the clean drop is the bundle's own at the interval's
+    /// flow and bulk temperature: tube side Darcy–Weisbach (<see cref="Core.Exchangers.ShellAndTubeGeometry.TubePressureDrop"/>),
+    /// shell side Bell–Delaware's when the baffle cut is given. Otherwise each cycle (between logged cleanings) is its own
+    /// reference: the median referred drop of its first week with data.
+    /// </summary>
+    private static (double[] Ratio, string Basis) Ratios(ExchangerConfiguration x, StreamConfiguration stream, string side, IngestResult data,
+        IReadOnlyList<SampleResult> samples, double[] dp, double[] flow, List<int> running, double reference)
     {
-        if (x.Clean is not GeometryCleanReference g || tube.Fluid is not Core.FluidModels.ITransportFluid fluid) return null;
-        var hot = ReferenceEquals(tube, x.Hot);
-        var ratios = new List<double>();
-        foreach (var k in lastWeek)
+        var ratio = new double[dp.Length];
+        Array.Fill(ratio, double.NaN);
+        var hot = ReferenceEquals(stream, x.Hot);
+        if (x.Clean is GeometryCleanReference g && stream.Fluid is Core.FluidModels.ITransportFluid fluid
+            && (side == "tube" || g.Geometry.Baffles is not null))
         {
-            var m = samples[k].Evaluation.Measurements;
-            if (m is null) continue;
-            var bulk = hot ? 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]) : 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]);
-            try
+            var pressure = new Core.Quantities.Pressure(stream.PressurePascals);
+            foreach (var k in running)
             {
-                var clean = g.Geometry.TubePressureDrop(flow[k], fluid, Core.Quantities.Temperature.FromKelvin(bulk), new Core.Quantities.Pressure(tube.PressurePascals));
-                if (clean > 0) ratios.Add(dp[k] / clean);
+                var m = samples[k].Evaluation.Measurements;
+                if (m is not { Length: Measurement.Count }) continue;
+                var bulk = Core.Quantities.Temperature.FromKelvin(hot
+                    ? 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]) : 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]));
+                try
+                {
+                    var clean = side == "tube"
+                        ? g.Geometry.TubePressureDrop(flow[k], fluid, bulk, pressure)
+                        : g.Geometry.BellDelaware!.PressureDrop(flow[k], fluid.Viscosity(bulk, pressure),
+                            fluid.Density(bulk, pressure) ?? double.NaN);
+                    if (clean > 0) ratio[k] = dp[k] / clean;
+                }
+                catch (Core.Quantities.QuantityOutOfRangeException) { }
             }
-            catch (Core.Quantities.QuantityOutOfRangeException) { }
+            return (ratio, GeometryBasis);
         }
-        return ratios.Count < 5 ? null : Median(ratios);
+        var cleanings = x.Maintenance.Where(mt => mt.IsCleaning).Select(mt => mt.Date).Order().ToList();
+        var bySegment = running.GroupBy(k => cleanings.Count(c => c <= data.IntervalStart(k)));
+        foreach (var segment in bySegment)
+        {
+            var ks = segment.ToList();
+            var first = data.IntervalStart(ks[0]);
+            var week = ks.Where(k => data.IntervalStart(k) < first + Week).Select(k => dp[k] * Math.Pow(reference / flow[k], FlowExponent)).ToList();
+            if (week.Count < 5) continue;
+            var baseline = Median(week);
+            foreach (var k in ks) ratio[k] = dp[k] * Math.Pow(reference / flow[k], FlowExponent) / baseline;
+        }
+        return (ratio, CleaningBasis);
+    }
+
+    /// <summary>Straight line through the daily medians of the ratio from the cycle's start, by least squares with AR(1)
+    /// plus white-noise errors (<see cref="Trends.LeastSquares.FitWithSerialCorrelation"/>): slope per day and its standard
+    /// error; null with fewer than 7 days.</summary>
+    private static (double? Slope, double? Sigma) RatioTrend(IngestResult data, double[] ratio, DateTimeOffset start)
+    {
+        var days = new SortedDictionary<int, List<double>>();
+        for (var k = 0; k < ratio.Length; k++)
+        {
+            var t = data.IntervalStart(k);
+            if (t < start || !double.IsFinite(ratio[k])) continue;
+            var day = (int)Math.Floor((t - start).TotalDays);
+            if (!days.TryGetValue(day, out var list)) days[day] = list = [];
+            list.Add(ratio[k]);
+        }
+        var used = days.Where(d => d.Value.Count >= 3).ToList();
+        if (used.Count < 7) return (null, null);
+        var tDays = used.Select(d => d.Key + 0.5).ToArray();
+        var y = used.Select(d => Median(d.Value)).ToArray();
+        var fit = Trends.LeastSquares.FitWithSerialCorrelation(new Trends.LinearFouling(), tDays, y, Enumerable.Repeat(1.0, y.Length).ToArray());
+        return fit is null ? (null, null) : (fit.Parameters[1], fit.StandardErrors[1]);
+    }
+
+    private static double? MedianOrNull(IEnumerable<double> values)
+    {
+        var v = values.ToList();
+        return v.Count < 5 ? null : Median(v);
     }
 
     private static double Median(IEnumerable<double> values)

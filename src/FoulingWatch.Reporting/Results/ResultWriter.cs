@@ -30,7 +30,7 @@ public static class ResultWriter
             Parallel.ForEach(result.Exchangers, x =>
                 TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
                     x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList(),
-                    x.Economics.Pricing?.MoneyPerJoule));
+                    x.Economics.Pricing?.MoneyPerJoule, x.PressureDrops));
         });
         StageClock.Time("write summary and plan", () =>
         {
@@ -141,6 +141,9 @@ public static class ResultWriter
                 deposit_m_from_drop = p.DepositFromDrop is { } dd ? NumberText.Json(dd) : null,
                 deposit_m_from_rf = p.DepositFromRf is { } dr ? NumberText.Json(dr) : null,
                 measured_over_clean = p.CleanRatio is { } cr ? NumberText.Json(cr) : null,
+                ratio_basis = p.RatioBasis,
+                ratio_slope_per_day = p.RatioSlopePerDay is { } rs ? NumberText.Json(rs) : null,
+                ratio_slope_sigma_per_day = p.RatioSlopeSigma is { } rsg ? NumberText.Json(rsg) : null,
                 statement = p.Statement,
             }),
             instrument_drift = x.History.Drift is not { } d ? null : new

@@ -17,15 +17,19 @@ public static class TimeSeriesWriter
         "rf_sigma_systematic_m2K_per_W", "rf_sigma_random_m2K_per_W", "rf_fit_m2K_per_W", "balance_mismatch", "lmtd_K", "f_correction", "duty_clean_W", "hot_outlet_clean_K", "cold_outlet_clean_K",
         "hot_flow_kg_per_s", "hot_inlet_K", "hot_outlet_K", "cold_flow_kg_per_s", "cold_inlet_K", "cold_outlet_K",
         "fouling_cost_per_day", "recon_global_test", "recon_gross_error", "recon_z_hot_flow", "recon_z_hot_inlet", "recon_z_hot_outlet",
-        "recon_z_cold_flow", "recon_z_cold_inlet", "recon_z_cold_outlet", "detail",
+        "recon_z_cold_flow", "recon_z_cold_inlet", "recon_z_cold_outlet", "dp_tube_ratio", "dp_shell_ratio", "detail",
     ];
 
     /// <param name="fitted">Fitted Rf per sample (same index), or null.</param>
     /// <param name="moneyPerJoule">Price of lost duty (currency per J), or null when the exchanger is not priced.</param>
+    /// <param name="drops">Pressure-drop signals whose measured-over-clean ratios fill the dp_*_ratio columns.</param>
     /// <remarks>Formats each cell straight into UTF-8 bytes and streams them to the file in blocks: no string per cell and
     /// no whole-file text in memory (the same bytes as formatting each value with "G9").</remarks>
-    public static void Write(string path, ExchangerHistory history, IReadOnlyList<double>? fitted = null, double? moneyPerJoule = null)
+    public static void Write(string path, ExchangerHistory history, IReadOnlyList<double>? fitted = null, double? moneyPerJoule = null,
+        IReadOnlyList<Analysis.PressureDropChange>? drops = null)
     {
+        var tubeRatio = drops?.FirstOrDefault(d => d.Side == "tube")?.Ratio ?? [];
+        var shellRatio = drops?.FirstOrDefault(d => d.Side == "shell")?.Ratio ?? [];
         AtomicFile.Write(path, stream =>
         {
             var row = new CsvRowWriter(stream);
@@ -49,6 +53,8 @@ public static class TimeSeriesWriter
                 row.Number(e.Reconciliation?.GlobalTest ?? double.NaN);
                 row.Text(e.Reconciliation is null ? "" : e.Reconciliation.GrossError ? "1" : "0");
                 foreach (var v in e.Reconciliation?.NormalisedAdjustments ?? none) row.Number(v);
+                row.Number(k < tubeRatio.Length ? tubeRatio[k] : double.NaN);
+                row.Number(k < shellRatio.Length ? shellRatio[k] : double.NaN);
                 row.Text(Quote(e.Detail));
                 row.End();
             }

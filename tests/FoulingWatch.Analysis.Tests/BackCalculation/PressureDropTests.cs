@@ -26,6 +26,13 @@ public class PressureDropTests
         // the last week: the hours after day 29 23:00 − 7 d up to it, whose middle is day (23 + 29 23/24)/2
         Assert.Equal(Reference((23 + 29 + 23.0 / 24) / 2) * 1e5, dpChange.Last, 1e5 * 0.002);
         Assert.StartsWith("tube-side pressure drop at 108 t/h: 0.512 → 0.588 bar (+15%)", dpChange.Statement);
+        // Without a geometry the cycle's first week is the clean reference: the referred drop over it is linear in time,
+        // so the daily medians of measured over clean lie on a line of slope (0.1 bar/30 d)/first-week median exactly.
+        Assert.Equal(PressureDropTrend.CleaningBasis, dpChange.RatioBasis);
+        var slope = 0.1e5 / 30 / dpChange.First;
+        Assert.Equal(slope, dpChange.RatioSlopePerDay!.Value, 0.01 * slope);
+        Assert.InRange(dpChange.RatioSlopeSigma!.Value, 0, 0.01 * slope);
+        Assert.Equal(Reference(29.9) * 1e5 / dpChange.First, dpChange.Ratio.Last(double.IsFinite), 0.01);
         // the raw readings swing far more than the rise: without referring them to one flow the trend is hidden
         Assert.True(raw.Max() / raw.Min() > 2, $"raw swing {raw.Max() / raw.Min():0.00}");
 
@@ -37,8 +44,10 @@ public class PressureDropTests
         var withBore = Assert.Single(Assert.Single(plant.Analyse().Exchangers).PressureDrops);
         Assert.Equal(2.281e-4, withBore.DepositFromDrop!.Value, 2e-6);
         Assert.Equal(6.9e-5, withBore.DepositFromRf!.Value, 1e-6);
-        Assert.EndsWith("deposit about 0.23 mm from the drop, 0.07 mm from Rf at 0.2 W/mK: the bore narrows more than Rf says; " +
+        Assert.Contains("deposit about 0.23 mm from the drop, 0.07 mm from Rf at 0.2 W/mK: the bore narrows more than Rf says; " +
             "a more conductive deposit, debris, or a partly closed valve", withBore.Statement);
+        Assert.EndsWith(FormattableString.Invariant($"; measured over clean moving +{slope * 100:0.000} ± 0.000 %/day over the cycle"),
+            withBore.Statement);
     }
 
     /// <summary>Adds a tube-side drop column DPT (bar) made from the true referred drop at each row's cold flow, passed
@@ -80,8 +89,13 @@ public class PressureDropTests
             ar = 0.95 * ar + 0.01 * Math.Sqrt(-2 * Math.Log(1 - rng.NextDouble())) * Math.Cos(2 * Math.PI * rng.NextDouble());
             return 1.04 * dp * (1 + ar);
         });
-        var change = Assert.Single(Assert.Single(plant.Analyse().Exchangers).PressureDrops).Change;
+        var drop = Assert.Single(Assert.Single(plant.Analyse().Exchangers).PressureDrops);
         var truth = Reference((23 + 29 + 23.0 / 24) / 2) / Reference((0 + 6 + 23.0 / 24) / 2) - 1;
-        Assert.InRange(change, truth - 0.02, truth + 0.02);
+        Assert.InRange(drop.Change, truth - 0.02, truth + 0.02);
+        // the ratio's trend: the span error cancels, the wander widens the interval, which must still cover the truth
+        var slope = 0.1 / 30 / Reference(3.5);
+        var (fitted, sigma) = (drop.RatioSlopePerDay!.Value, drop.RatioSlopeSigma!.Value);
+        Assert.InRange(sigma, 1e-5, 0.3 * slope);
+        Assert.InRange(fitted, slope - 3 * sigma, slope + 3 * sigma);
     }
 }
