@@ -9,7 +9,7 @@ using Xunit.Abstractions;
 
 namespace FoulingWatch.Analysis.Tests.BackCalculation;
 
-/// <summary>A cooling-water cooler through a year: the water inlet swings ±6 K with the season, which moves the tube
+/// <summary>A cooling-water cooler through a year: the water inlet swings ±8 K with the season, which moves the tube
 /// film by a tenth at the same flow; and a crude preheater whose crude inlet swings ±15 K with the upstream train.
 /// Synthetic (not an external check): the export is made with the tube film scaled by the fluid's properties; the
 /// external checks of the properties themselves are in WaterTransportTests and PetroleumTransportTests.</summary>
@@ -19,9 +19,14 @@ public class PropertyScalingTests(ITestOutputHelper output)
 
     /// <summary>The tube-side fluid of a case, its configuration, inlet temperature (mean, seasonal swing), design bulk
     /// temperature and hot inlet, °C.</summary>
-    private sealed record Case(ITransportFluid Fluid, string Json, double Inlet, double Swing, double DesignBulk, double HotInlet);
+    private sealed record Case(ITransportFluid Fluid, string Json, double Inlet, double Swing, double DesignBulk, double HotInlet,
+        bool GnielinskiTruth = false);
 
-    private static readonly Case Water = new(new IapwsWater(), "{ \"model\": \"water\" }", 25, 6, 30, 90);
+    /// <summary>A bundle whose true tube film is Gnielinski's (with Petukhov friction) rather than the Dittus–Boelter form
+    /// the datasheet scaling assumes: a model-form mismatch.</summary>
+    private static readonly ShellAndTubeGeometry Bundle = new(0.489, 0.01905, 0.01575, 4.877, 300, 0.02381, TubeLayout.Triangular, 2, 0.3, 50);
+
+    private static readonly Case Water = new(new IapwsWater(), "{ \"model\": \"water\" }", 25, 8, 30, 90);
 
     private static readonly Case Crude = new(new PetroleumLiquidTransport(new KeslerLeePetroleumLiquid(0.85, 11.8), 0.85,
             new WaltherViscosity(313.15, 9e-6, 373.15, 2.6e-6)),
@@ -35,6 +40,8 @@ public class PropertyScalingTests(ITestOutputHelper output)
         var water = c.Fluid;
         var p = 3e5;
         var scaling = new FilmPropertyScaling(water, p, c.DesignBulk + 273.15, 0.8);
+        double TubeFilm(double flow, double bulkK) => Bundle.TubeFilm(flow, water, Temperature.FromKelvin(bulkK), new Pressure(p), out _);
+        var designFilm = TubeFilm(DesignCold, c.DesignBulk + 273.15);
         double Rf(double d) => 2e-5 + 3e-7 * d;
         var csv = new StringBuilder("Timestamp,FH,TH1,TH2,FC,TC1,TC2\n");
         var start = new DateTimeOffset(2026, 1, 1, 0, 0, 0, TimeSpan.Zero);
@@ -49,8 +56,9 @@ public class PropertyScalingTests(ITestOutputHelper output)
             RatingResult r = default;
             for (var it = 0; it < 4; it++)
             {
-                var f = scaling.InverseFactor(0.5 * (tci + tco) + 273.15);
-                var inverse = 0.5 / U * Math.Pow(DesignCold / mc, 0.8) * f + 0.5 / U * Math.Pow(DesignHot / mh, 0.6) + Rf(d);
+                var tubeBulk = 0.5 * (tci + tco) + 273.15;
+                var tube = c.GnielinskiTruth ? designFilm / TubeFilm(mc, tubeBulk) : Math.Pow(DesignCold / mc, 0.8) * scaling.InverseFactor(tubeBulk);
+                var inverse = 0.5 / U * tube + 0.5 / U * Math.Pow(DesignHot / mh, 0.6) + Rf(d);
                 var cp = ((IFluidModel)water).MeanSpecificHeat(Temperature.FromCelsius(tci), Temperature.FromCelsius(tco), new Pressure(p));
                 r = Rating.Rate(Counterflow.Instance, Area / inverse, mh * CpHot, mc * cp, Temperature.FromCelsius(thi), Temperature.FromCelsius(tci));
                 tco = r.ColdOutlet.Celsius;
@@ -98,16 +106,26 @@ public class PropertyScalingTests(ITestOutputHelper output)
     [Fact]
     public void Scaling_the_water_film_with_its_properties_removes_the_seasonal_false_fouling() => Check(Water);
 
+    // Adversarial, model-form mismatch: the water film truly follows Gnielinski's correlation (Re about 27,000) while
+    // the datasheet scaling assumes Dittus–Boelter's exponents (Re^0.8 for the ±10 % flow swings, Pr^0.4). Measured:
+    // flow scaling only 4.7e-5, with property scaling 5.6e-6 m²K/W RMS: the seasonal part is removed, what remains is the
+    // exponents' mismatch (the geometry method, which uses Gnielinski itself, has none). Bound: 15 % of the flow-only
+    // error and 8e-6.
+    [Fact]
+    public void The_seasonal_correction_holds_when_the_true_film_follows_another_correlation() =>
+        Check(Water with { GnielinskiTruth = true }, limit: 8e-6, share: 0.15);
+
     // The same for a crude: its viscosity (ASTM D341 from two assay points) moves the film far more than water's.
     [Fact]
     public void Scaling_a_crude_film_with_its_assay_viscosity_removes_the_false_fouling_of_inlet_swings() => Check(Crude);
 
-    private void Check(Case c)
+    private void Check(Case c, double limit = 5e-6, double share = 0.2)
     {
         var flowOnly = RmsError(scaled: false, c);
         var withProperties = RmsError(scaled: true, c);
         output.WriteLine(FormattableString.Invariant($"RMS error of Rf: flow scaling only {flowOnly:G3}, with property scaling {withProperties:G3} m2K/W"));
         Assert.True(flowOnly > 2e-5, $"the seasonal effect should show without the scaling ({flowOnly:G3})");
-        Assert.True(withProperties < 0.2 * flowOnly, $"with the scaling {withProperties:G3} against {flowOnly:G3}");
+        Assert.True(withProperties < share * flowOnly, $"with the scaling {withProperties:G3} against {flowOnly:G3}");
+        Assert.True(withProperties < limit, $"with the scaling Rf must stay flat within {limit:G2} m2K/W ({withProperties:G3})");
     }
 }
