@@ -214,12 +214,33 @@ public static class BackCalculator
         var end = start.Value + b.Duration;
         var nt = tubePhase ? 0 : b.TubeExponent;
         var ns = shellPhase ? 0 : b.ShellExponent;
-        return WilsonPlot.Fit(CalibrationRows(data, evaluations, evaluator, start.Value, end, nt, ns), nt, ns, start.Value, end);
+        var scalings = b.PropertyCorrected ? BaselineScalings(x, evaluations, evaluator, data, start.Value, end) : default;
+        return WilsonPlot.Fit(CalibrationRows(data, evaluations, evaluator, start.Value, end, nt, ns, scalings), nt, ns, start.Value, end,
+            scalings: scalings);
+    }
+
+    /// <summary>Property factors for a property-corrected baseline: each single-phase side with transport properties,
+    /// relative to its median bulk temperature over the calibration window (any reference would do: it scales the
+    /// fitted coefficient), with the side's flow exponent.</summary>
+    private static (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) BaselineScalings(ExchangerConfiguration x,
+        SampleEvaluation[] evaluations, SampleEvaluator evaluator, IngestResult data, DateTimeOffset start, DateTimeOffset end)
+    {
+        var bulks = Enumerable.Range(0, evaluations.Length)
+            .Where(k => data.IntervalStart(k) >= start && data.IntervalStart(k) < end && evaluations[k].Status == SampleStatus.Ok)
+            .Select(k => evaluator.BulkTemperatures(evaluations[k].Measurements)).ToList();
+        FilmPropertyScaling? For(StreamConfiguration side, Func<(double Tube, double Shell), double> pick, double n)
+        {
+            if (bulks.Count == 0 || side.Fluid.IsPhaseChange || side.Fluid is not Core.FluidModels.ITransportFluid fluid) return null;
+            var reference = bulks.Select(pick).Order().ElementAt(bulks.Count / 2);
+            return new FilmPropertyScaling(fluid, side.PressurePascals, reference, n);
+        }
+        return (For(x.Tube, b => b.Tube, x.Clean.TubeExponent), For(x.Shell, b => b.Shell, x.Clean.ShellExponent));
     }
 
     /// <summary>The usable samples in [start, end) as Wilson-plot rows, weighted by 1/σ²(1/U).</summary>
     public static List<WilsonRow> CalibrationRows(IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator,
-        DateTimeOffset start, DateTimeOffset end, double nt, double ns)
+        DateTimeOffset start, DateTimeOffset end, double nt, double ns,
+        (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default)
     {
         var rows = new List<WilsonRow>();
         for (var k = 0; k < evaluations.Length; k++)
@@ -229,7 +250,9 @@ public static class BackCalculator
             if (t < start || t >= end || e.Status != SampleStatus.Ok || !(e.UActual > 0)) continue;
             var sigmaU = SigmaOfInverseU(evaluator, e);
             var w = sigmaU > 0 ? 1 / (sigmaU * sigmaU) : 1;
-            rows.Add(new WilsonRow(1 / e.UActual, Math.Pow(e.TubeFlow, -nt), Math.Pow(e.ShellFlow, -ns), (t - start).TotalDays, w));
+            var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(e.Measurements);
+            rows.Add(new WilsonRow(1 / e.UActual, Math.Pow(e.TubeFlow, -nt) * (scalings.Tube?.InverseFactor(tubeBulk) ?? 1),
+                Math.Pow(e.ShellFlow, -ns) * (scalings.Shell?.InverseFactor(shellBulk) ?? 1), (t - start).TotalDays, w));
         }
         return rows;
     }

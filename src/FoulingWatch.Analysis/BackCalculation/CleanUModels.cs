@@ -128,22 +128,28 @@ public sealed class DatasheetCleanU : ICleanUModel
 
 /// <summary>Clean U from a Wilson-plot fit: 1/U = a + b·ṁ_t^−n_t + c·ṁ_s^−n_s (b or c may be zero when a side did not vary).</summary>
 /// <param name="covariance">Covariance of (a, b, c) from the fit (zeros for a side not fitted), or null for none.</param>
+/// <param name="scalings">With a property-corrected baseline, each side's film term times its fluid's property factor at
+/// the bulk temperature (<see cref="FilmPropertyScaling.InverseFactor"/>); null sides are not corrected.</param>
 public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube, double nShell, string description,
-    double[,]? covariance = null) : ICleanUModel
+    double[,]? covariance = null, (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default) : ICleanUModel
 {
     public double A { get; } = a;
     public double B { get; } = b;
     public double C { get; } = c;
     public string Description { get; } = description;
 
-    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
-        1 / (A + B * Math.Pow(tubeFlow, -nTube) + C * Math.Pow(shellFlow, -nShell));
+    private double TubeTerm(double flow, double bulk) => Math.Pow(flow, -nTube) * (scalings.Tube?.InverseFactor(bulk) ?? 1);
+    private double ShellTerm(double flow, double bulk) => Math.Pow(flow, -nShell) * (scalings.Shell?.InverseFactor(bulk) ?? 1);
 
-    /// <summary>u(1/U_c) = √(gᵀ·Cov·g) with g = (1, ṁ_t^−n_t, ṁ_s^−n_s): the fit's parameter covariance at these flows.</summary>
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
+        1 / (A + B * TubeTerm(tubeFlow, tubeBulk) + C * ShellTerm(shellFlow, shellBulk));
+
+    /// <summary>u(1/U_c) = √(gᵀ·Cov·g) with g = (1, ṁ_t^−n_t, ṁ_s^−n_s) (times the property factors when corrected): the
+    /// fit's parameter covariance at these flows.</summary>
     public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
     {
         if (covariance is null) return 0;
-        Span<double> g = [1, Math.Pow(tubeFlow, -nTube), Math.Pow(shellFlow, -nShell)];
+        Span<double> g = [1, TubeTerm(tubeFlow, tubeBulk), ShellTerm(shellFlow, shellBulk)];
         var v = 0.0;
         for (var i = 0; i < 3; i++)
         for (var j = 0; j < 3; j++) v += g[i] * covariance[i, j] * g[j];

@@ -24,9 +24,13 @@ public static class WilsonPlot
     public const double MinimumVariation = 0.03;
     public const double MaximumCorrelation = 0.95;
 
+    /// <param name="scalings">Property factors already applied to the rows' regressors (a property-corrected baseline),
+    /// carried into the clean-U model; default none.</param>
     public static (ICleanUModel?, CleanReferenceReport) Fit(IReadOnlyList<WilsonRow> rows, double nt, double ns,
-        DateTimeOffset start, DateTimeOffset end, double minimumIntercept = 0)
+        DateTimeOffset start, DateTimeOffset end, double minimumIntercept = 0,
+        (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default)
     {
+        var corrected = scalings.Tube is not null || scalings.Shell is not null ? ", property-corrected" : "";
         if (rows.Count < MinimumSamples)
             return (null, new CleanReferenceReport("baseline", "Wilson-plot baseline", $"only {rows.Count} usable samples between {start:yyyy-MM-dd} and {end:yyyy-MM-dd}; at least {MinimumSamples} are needed (lengthen clean.duration or set clean.start)", rows.Count, null, start, end));
         var cvT = Cv(rows.Select(r => r.Xt));
@@ -50,8 +54,8 @@ public static class WilsonPlot
             {
                 var sides = useT && useS ? "both sides" : useT ? "tube side only (shell flow steady)" : "shell side only (tube flow steady)";
                 var description = FormattableString.Invariant(
-                    $"baseline (Wilson plot, {sides}, fouling term {fit.D:G3} m2K/W per day{(fit.Bounded ? ", intercept held at its physical bound" : "")}) from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}: 1/U = {fit.A:G4} + {fit.B:G4}·ṁt^-{nt:0.##} + {fit.C:G4}·ṁs^-{ns:0.##}");
-                return (new WilsonPlotCleanU(fit.A, fit.B, fit.C, nt, ns, description, fit.Covariance),
+                    $"baseline (Wilson plot, {sides}{corrected}, fouling term {fit.D:G3} m2K/W per day{(fit.Bounded ? ", intercept held at its physical bound" : "")}) from {rows.Count} samples {start:yyyy-MM-dd} to {end:yyyy-MM-dd}: 1/U = {fit.A:G4} + {fit.B:G4}·ṁt^-{nt:0.##} + {fit.C:G4}·ṁs^-{ns:0.##}");
+                return (new WilsonPlotCleanU(fit.A, fit.B, fit.C, nt, ns, description, fit.Covariance, scalings),
                     new CleanReferenceReport("baseline", description, null, rows.Count, fit.Residual, start, end));
             }
             note = "the fit gave a negative side resistance, which is unphysical";

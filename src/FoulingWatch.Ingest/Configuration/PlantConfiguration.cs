@@ -146,7 +146,10 @@ public sealed record GeometryCleanReference(Core.Exchangers.ShellAndTubeGeometry
 
 /// <summary>Clean U fitted (Wilson plot) from the first days of operation after a cleaning.</summary>
 /// <param name="Start">Start of the calibration period; null: the last logged cleaning, else the first data.</param>
-public sealed record BaselineCleanReference(TimeSpan Duration, DateTimeOffset? Start, double TubeExponent, double ShellExponent)
+/// <param name="PropertyCorrected">Each side's film term also follows its fluid's viscosity, conductivity and cp at the
+/// interval's bulk temperature (Dittus–Boelter form), relative to the calibration window's median bulk temperature.</param>
+public sealed record BaselineCleanReference(TimeSpan Duration, DateTimeOffset? Start, double TubeExponent, double ShellExponent,
+    bool PropertyCorrected = false)
     : CleanReference(TubeExponent, ShellExponent);
 
 /// <summary>Limits that define "must clean": fouling resistance (m²·K/W), minimum duty (W), minimum cold outlet (K).</summary>

@@ -566,7 +566,11 @@ public static partial class PlantConfigurationReader
             case "baseline":
                 var days = n.Quantity("duration", Dimension.Duration, minSi: 3600) ?? 14 * 86400.0;
                 var start = ReadDate(n, "start", site);
-                result = new BaselineCleanReference(TimeSpan.FromSeconds(days), start, tubeN, shellN);
+                var corrected = n.Boolean("propertyCorrected") ?? false;
+                if (corrected && !new[] { hot, cold }.Any(sd => sd?.Fluid is Core.FluidModels.ITransportFluid && !sd.Fluid.IsPhaseChange))
+                    n.Error("propertyCorrected", "needs the viscosity and conductivity of at least one single-phase fluid: \"water\", or a " +
+                        "petroleum liquid with its \"viscosity\" points.");
+                result = new BaselineCleanReference(TimeSpan.FromSeconds(days), start, tubeN, shellN, corrected);
                 break;
             case "geometry":
                 result = ReadGeometry(n, hot, cold, area);

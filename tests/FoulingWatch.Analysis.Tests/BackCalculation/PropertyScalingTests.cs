@@ -33,7 +33,7 @@ public class PropertyScalingTests(ITestOutputHelper output)
         "{ \"model\": \"petroleum\", \"sg\": 0.85, \"watsonK\": 11.8, \"viscosity\": [[\"40 degC\", \"9 cSt\"], [\"100 degC\", \"2.6 cSt\"]] }",
         120, 15, 125, 250);
 
-    private static (string Dir, Func<double, double> TrueRf) Write(bool scaled, Case c)
+    private static (string Dir, Func<double, double> TrueRf) Write(bool scaled, Case c, bool baseline = false)
     {
         var dir = Path.Combine(Path.GetTempPath(), "fw-props", Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(dir);
@@ -67,6 +67,9 @@ public class PropertyScalingTests(ITestOutputHelper output)
         }
         File.WriteAllText(Path.Combine(dir, "export.csv"), csv.ToString());
         var bulk = scaled ? FormattableString.Invariant($", \"tubeBulkTemperature\": \"{c.DesignBulk} degC\"") : "";
+        var clean = baseline
+            ? $"\"method\": \"baseline\", \"duration\": \"20 d\", \"propertyCorrected\": {(scaled ? "true" : "false")}"
+            : $"\"method\": \"datasheet\", \"u\": \"{U} W/m2K\", \"tubeShare\": \"50 %\"{bulk}";
         File.WriteAllText(Path.Combine(dir, "plant.json"), $$"""
             {
               "site": { "name": "Curlew Flats (fictional)", "timeZone": "UTC" },
@@ -77,7 +80,7 @@ public class PropertyScalingTests(ITestOutputHelper output)
                           "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" }, "designFlow": "{{DesignHot}} kg/s" },
                 "cold": { "side": "tube", "fluid": {{c.Json}}, "pressure": "3 bar", "flow": { "tag": "FC", "unit": "kg/s" },
                           "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" }, "designFlow": "{{DesignCold}} kg/s" },
-                "clean": { "method": "datasheet", "u": "{{U}} W/m2K", "tubeShare": "50 %"{{bulk}} },
+                "clean": { {{clean}} },
                 "maintenance": [ { "date": "2026-01-01", "action": "cleaned" } ]
               } ]
             }
@@ -86,15 +89,16 @@ public class PropertyScalingTests(ITestOutputHelper output)
     }
 
     /// <summary>Root-mean-square error of the usable samples' Rf against the truth, m²K/W.</summary>
-    private static double RmsError(bool scaled, Case c)
+    private static double RmsError(bool scaled, Case c, bool baseline = false)
     {
-        var (dir, rf) = Write(scaled, c);
+        var (dir, rf) = Write(scaled, c, baseline);
         try
         {
             var history = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0].History;
             var start = history.Samples[0].Timestamp;
             var errors = history.Samples.Where(s => s.Status == SampleStatus.Ok)
-                .Select(s => s.Evaluation.FoulingResistance - rf((s.Timestamp - start).TotalDays)).ToList();
+                // a baseline learns the clean U at the cleaning, deposits then present included: Rf counts from there
+                .Select(s => s.Evaluation.FoulingResistance - rf((s.Timestamp - start).TotalDays) + (baseline ? rf(0) : 0)).ToList();
             Assert.True(errors.Count > 3000, $"{errors.Count} usable samples");
             return Math.Sqrt(errors.Average(e => e * e));
         }
@@ -114,6 +118,19 @@ public class PropertyScalingTests(ITestOutputHelper output)
     [Fact]
     public void The_seasonal_correction_holds_when_the_true_film_follows_another_correlation() =>
         Check(Water with { GnielinskiTruth = true }, limit: 8e-6, share: 0.15);
+
+    // The baseline method learns the clean U in the 20 winter days after the cleaning (water at about 17 °C); without
+    // the property correction the summer's warmer, thinner water reads as un-fouling; with it the film term follows the
+    // water's properties from the window's median bulk temperature.
+    [Fact]
+    public void A_property_corrected_baseline_removes_the_seasonal_false_fouling()
+    {
+        var plain = RmsError(scaled: false, Water, baseline: true);
+        var corrected = RmsError(scaled: true, Water, baseline: true);
+        output.WriteLine(FormattableString.Invariant($"baseline RMS error of Rf: plain {plain:G3}, property-corrected {corrected:G3} m2K/W"));
+        Assert.True(plain > 2e-5, $"the seasonal effect should show without the correction ({plain:G3})");
+        Assert.True(corrected < 5e-6 && corrected < 0.2 * plain, $"corrected {corrected:G3} against {plain:G3}");
+    }
 
     // The same for a crude: its viscosity (ASTM D341 from two assay points) moves the film far more than water's.
     [Fact]

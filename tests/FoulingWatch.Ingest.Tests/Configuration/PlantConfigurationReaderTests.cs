@@ -121,6 +121,17 @@ public class PlantConfigurationReaderTests
         Assert.Contains(wideCut.Errors, e => e.Path == "exchangers[0].clean.baffleCut");
     }
 
+    // A property-corrected baseline needs a fluid whose viscosity and conductivity are known.
+    [Fact]
+    public void A_property_corrected_baseline_without_transport_properties_is_refused()
+    {
+        var ex = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"",
+            "\"method\": \"baseline\", \"propertyCorrected\": true"));
+        var e = Assert.Single(ex.Errors);
+        Assert.Equal("exchangers[0].clean.propertyCorrected", e.Path);
+        Assert.StartsWith("needs the viscosity and conductivity of at least one single-phase fluid", e.Message);
+    }
+
     // A petroleum liquid's viscosity needs two points with the lower viscosity at the higher temperature.
     [Fact]
     public void A_petroleum_viscosity_that_rises_with_temperature_is_refused()
