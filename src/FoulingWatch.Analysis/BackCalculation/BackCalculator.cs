@@ -206,6 +206,12 @@ public static class BackCalculator
                 (Core.FluidModels.ITransportFluid)x.Shell.Fluid, x.Shell.PressurePascals);
             return (model, new CleanReferenceReport("geometry", model.Description, null, 0, null, null, null));
         }
+        if (x.Clean is PlateGeometryCleanReference pg)
+        {
+            var model = new PlateGeometryCleanU(pg, (Core.FluidModels.ITransportFluid)x.Tube.Fluid, x.Tube.PressurePascals,
+                (Core.FluidModels.ITransportFluid)x.Shell.Fluid, x.Shell.PressurePascals);
+            return (model, new CleanReferenceReport("geometry", model.Description, null, 0, null, null, null));
+        }
         var b = (BaselineCleanReference)x.Clean;
         var start = b.Start ?? x.Maintenance.Where(m => m.IsCleaning).Select(m => (DateTimeOffset?)m.Date).LastOrDefault()
                     ?? FirstOk(data, evaluations);

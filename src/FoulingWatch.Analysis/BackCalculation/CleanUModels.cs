@@ -186,3 +186,28 @@ public sealed class GeometryCleanU(GeometryCleanReference reference, ITransportF
     public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
         reference.RelativeUncertainty / CleanU(tubeFlow, shellFlow, tubeBulk, shellBulk);
 }
+
+/// <summary>Clean U of a chevron-plate pack at each interval's flows and bulk temperatures (<see cref="PlateGeometry"/>,
+/// Martin's correlation on both sides); NaN outside the correlation's range, and the sample says so.</summary>
+public sealed class PlateGeometryCleanU(PlateGeometryCleanReference reference, ITransportFluid tubeFluid, double tubePressure,
+    ITransportFluid shellFluid, double shellPressure) : ICleanUModel
+{
+    public string Description { get; } = FormattableString.Invariant(
+        $"geometry: {reference.Geometry.PlateCount} chevron plates {reference.Geometry.PlateWidth * 1000:0} × {reference.Geometry.PlateLength * 1000:0} mm, ") +
+        FormattableString.Invariant($"gap {reference.Geometry.ChannelGap * 1000:0.##} mm, {reference.Geometry.ChevronAngle:0.#}°; Martin on both sides, ") +
+        FormattableString.Invariant($"(μ/μw)^(1/6), plate {reference.Geometry.WallResistance:G3} m2K/W; ± {reference.RelativeUncertainty:P0} on 1/U");
+
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
+    {
+        if (!double.IsFinite(tubeBulk) || !double.IsFinite(shellBulk) || !(tubeFlow > 0) || !(shellFlow > 0)) return double.NaN;
+        try
+        {
+            return reference.Geometry.CleanU(tubeFlow, tubeFluid, Temperature.FromKelvin(tubeBulk), new Pressure(tubePressure),
+                shellFlow, shellFluid, Temperature.FromKelvin(shellBulk), new Pressure(shellPressure));
+        }
+        catch (QuantityOutOfRangeException) { return double.NaN; }
+    }
+
+    public double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
+        reference.RelativeUncertainty / CleanU(tubeFlow, shellFlow, tubeBulk, shellBulk);
+}

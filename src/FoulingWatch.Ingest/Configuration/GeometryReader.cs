@@ -73,4 +73,32 @@ public static partial class PlantConfigurationReader
             n.Error("bundleShellClearance", "must be well below the shell diameter (it is the gap between the outer tubes and the shell).");
         return new BaffleDetails(cut.Value, tubeHole, shellGap, bundleGap, strips ?? 0, inlet, outlet);
     }
+
+    /// <summary>
+    /// A plate exchanger's pack for the geometry method (arrangement "plate"): plate count 3–1000, width 0.05–5 m, port
+    /// length 0.1–10 m, channel gap 1–10 mm, chevron angle 0–80° (Martin's range), enlargement factor 1–1.5 (default
+    /// 1.17), plate thickness 0.2–3 mm (default 0.6 mm) and conductivity (default 16 W/mK, stainless steel); the thermal
+    /// plates' surface (N − 2)·w·L·Φ within 15 % of the area. Both fluids need transport properties.
+    /// </summary>
+    private static PlateGeometryCleanReference? ReadPlateGeometry(JsonNode n, StreamConfiguration? hot, StreamConfiguration? cold, double? area)
+    {
+        var plates = n.Integer("plateCount", required: true, min: 3, max: 1000);
+        var width = n.Quantity("plateWidth", Dimension.Length, required: true, minSi: 0.05, maxSi: 5);
+        var length = n.Quantity("plateLength", Dimension.Length, required: true, minSi: 0.1, maxSi: 10);
+        var gap = n.Quantity("channelGap", Dimension.Length, required: true, minSi: 0.001, maxSi: 0.01);
+        var angle = n.Number("chevronAngle", required: true, min: 0, max: 80);
+        var phi = n.Number("enlargementFactor", min: 1, max: 1.5) ?? 1.17;
+        var thickness = n.Quantity("plateThickness", Dimension.Length, minSi: 2e-4, maxSi: 3e-3) ?? 6e-4;
+        var wall = n.Quantity("wallConductivity", Dimension.ThermalConductivity, minSi: 1, maxSi: 500) ?? 16;
+        var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? GeometryCleanReference.DefaultUncertainty;
+        foreach (var (side, key) in new[] { (hot, "hot"), (cold, "cold") })
+            if (side?.Fluid is { } f && (f.IsPhaseChange || f is not ITransportFluid))
+                n.ErrorHere($"the geometry method needs the viscosity and conductivity of both fluids; {key}.fluid ({f.Description}) has not: " +
+                    "use \"water\" or a petroleum liquid with its viscosity, or the datasheet method.");
+        if (plates is null || width is null || length is null || gap is null || angle is null) return null;
+        var g = new PlateGeometry(plates.Value, width.Value, length.Value, gap.Value, angle.Value, phi, thickness, wall);
+        if (area is { } a && Math.Abs(g.Area - a) > 0.15 * a)
+            n.ErrorHere(FormattableString.Invariant($"the thermal plates' surface (N − 2)·w·L·Φ = {g.Area:0.#} m2 differs from the exchanger's area {a:0.#} m2 by more than 15 %; check the plate pack or the area."));
+        return new PlateGeometryCleanReference(g, uncertainty);
+    }
 }

@@ -144,6 +144,11 @@ public sealed record GeometryCleanReference(Core.Exchangers.ShellAndTubeGeometry
     public const double DefaultUncertainty = 0.15;
 }
 
+/// <summary>Clean U of a chevron-plate exchanger from its plate pack and both fluids' properties (Martin's correlation
+/// on each side, plate conduction).</summary>
+public sealed record PlateGeometryCleanReference(Core.Exchangers.PlateGeometry Geometry, double RelativeUncertainty = GeometryCleanReference.DefaultUncertainty)
+    : CleanReference(0.75, 0.75);
+
 /// <summary>Clean U fitted (Wilson plot) from the first days of operation after a cleaning.</summary>
 /// <param name="Start">Start of the calibration period; null: the last logged cleaning, else the first data.</param>
 /// <param name="PropertyCorrected">Each side's film term also follows its fluid's viscosity, conductivity and cp at the

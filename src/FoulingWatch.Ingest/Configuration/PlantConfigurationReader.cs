@@ -432,7 +432,7 @@ public static partial class PlantConfigurationReader
         if (basis is null) n.Error("dutyBasis", $"'{basisText}' is not a duty basis; use \"hot\", \"cold\", \"mean\" or \"reconciled\".");
         var balance = n.Fraction("balanceTolerance", min: 0.001, max: 1) ?? 0.10;
         var downtime = n.Fraction("downtimeFlowFraction", min: 0, max: 0.9) ?? 0.2;
-        var clean = ReadClean(n.Object("clean", required: true), site, hot, cold, area);
+        var clean = ReadClean(n.Object("clean", required: true), site, hot, cold, area, arrangement is PlateAsCounterflow);
         var limitsNode = n.Object("limits");
         var limits = new ExchangerLimits(
             limitsNode?.Quantity("foulingResistance", Dimension.FoulingResistance, minSi: 0, exclusiveMin: true),
@@ -537,7 +537,8 @@ public static partial class PlantConfigurationReader
         return t;
     }
 
-    private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold, double? area)
+    private static CleanReference? ReadClean(JsonNode? n, SiteSettings? site, StreamConfiguration? hot, StreamConfiguration? cold, double? area,
+        bool plate = false)
     {
         if (n is null) return null;
         var method = n.String("method", required: true);
@@ -573,7 +574,7 @@ public static partial class PlantConfigurationReader
                 result = new BaselineCleanReference(TimeSpan.FromSeconds(days), start, tubeN, shellN, corrected);
                 break;
             case "geometry":
-                result = ReadGeometry(n, hot, cold, area);
+                result = plate ? ReadPlateGeometry(n, hot, cold, area) : ReadGeometry(n, hot, cold, area);
                 break;
             case null: break;
             default:

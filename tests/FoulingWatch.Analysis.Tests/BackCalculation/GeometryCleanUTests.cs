@@ -90,4 +90,64 @@ public class GeometryCleanUTests
         }
         finally { Directory.Delete(dir, recursive: true); }
     }
+
+    // The same for a chevron-plate pack ("plate" arrangement, Martin on both sides): water against water, 30 days, flows
+    // keeping both sides above Re 2000 (Martin's friction changes form there, a step of a few per cent in h).
+    [Fact]
+    public void A_known_fouling_history_is_recovered_with_the_clean_U_of_a_plate_pack()
+    {
+        var dir = Path.Combine(Path.GetTempPath(), "fw-plate", Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(dir);
+        try
+        {
+            var pack = new PlateGeometry(101, 0.5, 0.7, 0.003, 60, 1.17, 0.0006, 16);
+            var water = new IapwsWater();
+            var model = new PlateGeometryCleanU(new PlateGeometryCleanReference(pack), water, 5e5, water, 4e5);
+            double Rf(double d) => 5e-6 + 2e-6 * d;
+            var csv = new StringBuilder("Timestamp,FH,TH1,TH2,FC,TC1,TC2\n");
+            var start = new DateTimeOffset(2026, 3, 1, 0, 0, 0, TimeSpan.Zero);
+            for (var h = 0; h < 30 * 24; h++)
+            {
+                var d = h / 24.0;
+                var mh = 30 * (1 + 0.15 * Math.Sin(2 * Math.PI * d / 5.3));
+                var mc = 40 * (1 + 0.15 * Math.Sin(2 * Math.PI * d / 3.1 + 1));
+                var thi = 80 + 5 * Math.Sin(2 * Math.PI * d / 9);
+                var tci = 25 + 4 * Math.Cos(2 * Math.PI * d / 7);
+                double tho = thi - 20, tco = tci + 15;
+                for (var it = 0; it < 30; it++)
+                {
+                    var u = 1 / (1 / model.CleanU(mh, mc, 0.5 * (thi + tho) + 273.15, 0.5 * (tci + tco) + 273.15) + Rf(d));
+                    var cph = ((IFluidModel)water).MeanSpecificHeat(Temperature.FromCelsius(thi), Temperature.FromCelsius(tho), new Pressure(5e5));
+                    var cpc = ((IFluidModel)water).MeanSpecificHeat(Temperature.FromCelsius(tci), Temperature.FromCelsius(tco), new Pressure(4e5));
+                    var r = Rating.Rate(new PlateAsCounterflow(), u * pack.Area, mh * cph, mc * cpc, Temperature.FromCelsius(thi), Temperature.FromCelsius(tci));
+                    (tho, tco) = (r.HotOutlet.Celsius, r.ColdOutlet.Celsius);
+                }
+                csv.Append(FormattableString.Invariant($"{start.AddHours(h):yyyy-MM-ddTHH:mm:ssZ},{mh:R},{thi:R},{tho:R},{mc:R},{tci:R},{tco:R}\n"));
+            }
+            File.WriteAllText(Path.Combine(dir, "export.csv"), csv.ToString());
+            File.WriteAllText(Path.Combine(dir, "plant.json"), $$"""
+                {
+                  "site": { "name": "Plover Reach (fictional)", "timeZone": "UTC" },
+                  "data": { "interval": "1 h", "sources": [ { "files": ["export.csv"] } ] },
+                  "exchangers": [ {
+                    "id": "PX-1", "arrangement": "plate", "area": "{{pack.Area.ToString("R", System.Globalization.CultureInfo.InvariantCulture)}} m2",
+                    "hot":  { "side": "tube", "fluid": { "model": "water" }, "pressure": "5 bar", "flow": { "tag": "FH", "unit": "kg/s" },
+                              "inlet": { "tag": "TH1", "unit": "degC" }, "outlet": { "tag": "TH2", "unit": "degC" } },
+                    "cold": { "side": "shell", "fluid": { "model": "water" }, "pressure": "4 bar", "flow": { "tag": "FC", "unit": "kg/s" },
+                              "inlet": { "tag": "TC1", "unit": "degC" }, "outlet": { "tag": "TC2", "unit": "degC" } },
+                    "clean": { "method": "geometry", "plateCount": 101, "plateWidth": "0.5 m", "plateLength": "0.7 m",
+                               "channelGap": "3 mm", "chevronAngle": 60 },
+                    "maintenance": [ { "date": "2026-03-01", "action": "cleaned" } ]
+                  } ]
+                }
+                """);
+            var x = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0];
+            var ok = x.History.Samples.Where(s => s.Status == SampleStatus.Ok).ToList();
+            Assert.True(ok.Count > 0.9 * x.History.Samples.Count, $"{ok.Count} of {x.History.Samples.Count} usable");
+            var worst = ok.Max(s => Math.Abs(s.Evaluation.FoulingResistance - Rf((s.Timestamp - start).TotalDays)));
+            Assert.True(worst < 2e-7, $"worst Rf error {worst:G3} m2K/W");
+            Assert.StartsWith("geometry: 101 chevron plates 500 × 700 mm", x.History.CleanReference.Description);
+        }
+        finally { Directory.Delete(dir, recursive: true); }
+    }
 }

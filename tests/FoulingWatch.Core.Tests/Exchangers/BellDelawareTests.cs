@@ -114,3 +114,29 @@ public class BellDelawareTests
         Assert.True(heated > Bundle.CleanU(hiHot, hoHot) * 0.999, "the tube film of a heated liquid must not fall");
     }
 }
+
+public class PlateGeometryTests
+{
+    // An invented pack: 101 plates 0.5 × 0.7 m, gap 3 mm, 60° chevrons, Φ 1.17, 0.6 mm stainless (16 W/mK).
+    private static readonly PlateGeometry Pack = new(101, 0.5, 0.7, 0.003, 60, 1.17, 0.0006, 16);
+
+    // Hand evaluation of the pack's definitions (Martin 1996): d_h = 2b/Φ = 5.1282 mm; surface (N − 2)·w·L·Φ =
+    // 99·0.5·0.7·1.17 = 40.5405 m²; 100 channels, 50 a side; at 20 kg/s of μ 0.8 mPa·s, G = 20/(50·0.003·0.5) = 266.67
+    // kg/m²s and Re = G·d_h/μ = 1709.4; the film is Martin's Nu (checked against the published example) times k/d_h.
+    [Fact]
+    public void The_pack_gives_Martins_film_on_its_hydraulic_diameter()
+    {
+        Assert.Equal(5.1282e-3, Pack.HydraulicDiameter, 7);
+        Assert.Equal(40.5405, Pack.Area, 4);
+        Assert.Equal(50, Pack.TubeSideChannels);
+        Assert.Equal(50, Pack.ShellSideChannels);
+        var water = new FixedFluid(8e-4, 0.615, 4180);
+        var h = Pack.Film(20, 50, water, Temperature.FromCelsius(40), new Pressure(3e5), out var re);
+        Assert.Equal(1709.4, re, 1);
+        var pr = 4180 * 8e-4 / 0.615;
+        Assert.Equal(FilmCorrelations.MartinPlate(re, pr, 60) * 0.615 / Pack.HydraulicDiameter, h, 9);
+        // with one fixed viscosity the wall correction is 1: U is the series sum of the two films and the plate
+        var u = Pack.CleanU(20, water, Temperature.FromCelsius(40), new Pressure(3e5), 20, water, Temperature.FromCelsius(60), new Pressure(3e5));
+        Assert.Equal(1 / (2 / h + 0.0006 / 16), u, 6);
+    }
+}
