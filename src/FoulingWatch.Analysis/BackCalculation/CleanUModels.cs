@@ -52,9 +52,18 @@ public sealed class FilmPropertyScaling
     public double InverseFactor(double bulk)
     {
         if (!double.IsFinite(bulk)) return 1;
-        try { return Group(bulk) / _design; }
-        catch (PropertyRangeException) { return 1; }
+        // The uncertainty probes of one sample move one measurement at a time, so most of them ask again for the bulk
+        // temperature asked last on this thread: the last answer is kept per thread (a pure function, same values).
+        var last = _last.Value!;
+        if (last[0].Equals(bulk)) return last[1];
+        double factor;
+        try { factor = Group(bulk) / _design; }
+        catch (PropertyRangeException) { factor = 1; }
+        (last[0], last[1]) = (bulk, factor);
+        return factor;
     }
+
+    private readonly ThreadLocal<double[]> _last = new(() => [double.NaN, double.NaN]);
 }
 
 /// <summary>

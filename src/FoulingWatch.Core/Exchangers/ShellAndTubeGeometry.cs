@@ -56,9 +56,11 @@ public sealed record ShellAndTubeGeometry(double ShellDiameter, double TubeOuter
     /// <summary>Baffle cut and clearances: when given, the shell side is rated by Bell–Delaware instead of Kern.</summary>
     public BaffleDetails? Baffles { get; init; }
 
-    /// <summary>The Bell–Delaware shell of this bundle (null when <see cref="Baffles"/> is not given); built on each call,
-    /// so that a copy of the record with other dimensions never sees a stale one.</summary>
-    public BellDelawareShell? BellDelaware => Baffles is null ? null : new BellDelawareShell(this, Baffles);
+    private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<ShellAndTubeGeometry, BellDelawareShell> Shells = new();
+
+    /// <summary>The Bell–Delaware shell of this bundle (null when <see cref="Baffles"/> is not given); built once per
+    /// record instance (a copy made with other dimensions is another instance and gets its own).</summary>
+    public BellDelawareShell? BellDelaware => Baffles is null ? null : Shells.GetValue(this, g => new BellDelawareShell(g, g.Baffles!));
 
     /// <summary>Shell-side film (W/(m²·K)) at a mass flow (kg/s) and the fluid's state: Bell–Delaware when the baffle
     /// details are given, else Kern.</summary>
