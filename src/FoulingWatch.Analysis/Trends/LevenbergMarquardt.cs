@@ -32,6 +32,8 @@ public sealed class LevenbergMarquardt
         int n = y.Length, k = p.Length;
         var f = new double[n];
         var jac = new double[n * k];
+        var fTrial = new double[n];
+        var jacTrial = new double[n * k];
         var a = new double[k * k];
         var g = new double[k];
         var trial = new double[k];
@@ -77,8 +79,8 @@ public sealed class LevenbergMarquardt
             for (var j = 0; j < k; j++)
                 if (Math.Abs(trial[j] - p[j]) > StepTolerance * (Math.Abs(p[j]) + StepTolerance)) small = false;
             if (small) return true;
-            evaluate(trial, f, jac);
-            var trialCost = Cost(y, w, f);
+            evaluate(trial, fTrial, jacTrial);
+            var trialCost = Cost(y, w, fTrial);
             var predicted = 0.0;
             for (var j = 0; j < k; j++)
             {
@@ -91,6 +93,8 @@ public sealed class LevenbergMarquardt
                 var decrease = cost - trialCost;
                 Array.Copy(trial, p, k);
                 cost = trialCost;
+                (f, fTrial) = (fTrial, f);
+                (jac, jacTrial) = (jacTrial, jac);
                 Normal(jac, y, w, f, n, k, a, g);
                 mu *= Math.Max(1.0 / 3, 1 - Math.Pow(2 * gain - 1, 3));
                 nu = 2;
@@ -101,7 +105,6 @@ public sealed class LevenbergMarquardt
                 mu *= nu;
                 nu *= 2;
                 if (!double.IsFinite(mu) || mu > 1e300) return true;
-                evaluate(p, f, jac);
             }
         }
         return true;
