@@ -36,10 +36,7 @@ public static partial class PlantConfigurationReader
         if (din >= dout) n.Error("tubeInnerDiameter", "must be smaller than tubeOuterDiameter.");
         if (pitch < 1.2 * dout) n.Error("tubePitch", "must be at least 1.2 tube outer diameters (TEMA: 1.25).");
         if (baffles < 0.2 * ds || baffles > 2 * ds) n.Error("baffleSpacing", "must lie between a fifth of the shell diameter and two shell diameters.");
-        foreach (var (side, key) in new[] { (hot, "hot"), (cold, "cold") })
-            if (side?.Fluid is { } f && (f.IsPhaseChange || f is not ITransportFluid))
-                n.ErrorHere($"the geometry method needs the viscosity and conductivity of both fluids; {key}.fluid ({f.Description}) has not: " +
-                    "use \"water\" or a petroleum liquid with its viscosity, or the datasheet method.");
+        RequireTransportFluids(n, hot, cold);
         if (ds is null || dout is null || din is null || length is null || count is null || pitch is null || baffles is null || layout is null
             || din >= dout || pitch < 1.2 * dout)
             return null;
@@ -91,14 +88,21 @@ public static partial class PlantConfigurationReader
         var thickness = n.Quantity("plateThickness", Dimension.Length, minSi: 2e-4, maxSi: 3e-3) ?? 6e-4;
         var wall = n.Quantity("wallConductivity", Dimension.ThermalConductivity, minSi: 1, maxSi: 500) ?? 16;
         var uncertainty = n.Fraction("uncertainty", min: 0, max: 0.5) ?? GeometryCleanReference.DefaultUncertainty;
-        foreach (var (side, key) in new[] { (hot, "hot"), (cold, "cold") })
-            if (side?.Fluid is { } f && (f.IsPhaseChange || f is not ITransportFluid))
-                n.ErrorHere($"the geometry method needs the viscosity and conductivity of both fluids; {key}.fluid ({f.Description}) has not: " +
-                    "use \"water\" or a petroleum liquid with its viscosity, or the datasheet method.");
+        RequireTransportFluids(n, hot, cold);
         if (plates is null || width is null || length is null || gap is null || angle is null) return null;
         var g = new PlateGeometry(plates.Value, width.Value, length.Value, gap.Value, angle.Value, phi, thickness, wall);
         if (area is { } a && Math.Abs(g.Area - a) > 0.15 * a)
             n.ErrorHere(FormattableString.Invariant($"the thermal plates' surface (N − 2)·w·L·Φ = {g.Area:0.#} m2 differs from the exchanger's area {a:0.#} m2 by more than 15 %; check the plate pack or the area."));
         return new PlateGeometryCleanReference(g, uncertainty);
+    }
+
+    /// <summary>The geometry method rates films from properties: both fluids must be single-phase with transport
+    /// properties.</summary>
+    private static void RequireTransportFluids(JsonNode n, StreamConfiguration? hot, StreamConfiguration? cold)
+    {
+        foreach (var (side, key) in new[] { (hot, "hot"), (cold, "cold") })
+            if (side?.Fluid is { } f && (f.IsPhaseChange || f is not ITransportFluid))
+                n.ErrorHere($"the geometry method needs the viscosity and conductivity of both fluids; {key}.fluid ({f.Description}) has not: " +
+                    "use \"water\" or a petroleum liquid with its viscosity, or the datasheet method.");
     }
 }

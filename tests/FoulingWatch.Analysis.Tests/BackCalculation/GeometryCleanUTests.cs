@@ -77,11 +77,7 @@ public class GeometryCleanUTests
                   } ]
                 }
                 """);
-            var x = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0];
-            var ok = x.History.Samples.Where(s => s.Status == SampleStatus.Ok).ToList();
-            Assert.True(ok.Count > 0.9 * x.History.Samples.Count, $"{ok.Count} of {x.History.Samples.Count} usable");
-            var worst = ok.Max(s => Math.Abs(s.Evaluation.FoulingResistance - Rf((s.Timestamp - start).TotalDays)));
-            Assert.True(worst < 2e-7, $"worst Rf error {worst:G3} m2K/W");
+            var x = AnalyseAndCheckHistory(dir, start, Rf);
             Assert.StartsWith("geometry: 300 tubes 19.05/15.75 mm", x.History.CleanReference.Description);
             // measured over clean drop in the last week (hours 33 d 1 h … 39 d 23 h): 1 + 0.1·36.48/40 = 1.0912 at its middle
             var dp = Assert.Single(x.PressureDrops);
@@ -141,13 +137,21 @@ public class GeometryCleanUTests
                   } ]
                 }
                 """);
-            var x = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0];
-            var ok = x.History.Samples.Where(s => s.Status == SampleStatus.Ok).ToList();
-            Assert.True(ok.Count > 0.9 * x.History.Samples.Count, $"{ok.Count} of {x.History.Samples.Count} usable");
-            var worst = ok.Max(s => Math.Abs(s.Evaluation.FoulingResistance - Rf((s.Timestamp - start).TotalDays)));
-            Assert.True(worst < 2e-7, $"worst Rf error {worst:G3} m2K/W");
+            var x = AnalyseAndCheckHistory(dir, start, Rf);
             Assert.StartsWith("geometry: 101 chevron plates 500 × 700 mm", x.History.CleanReference.Description);
         }
         finally { Directory.Delete(dir, recursive: true); }
+    }
+
+    /// <summary>Analyses the plant in <paramref name="dir"/> and checks that nine tenths of its samples are usable and
+    /// every usable Rf is within 2e-7 m²K/W of the history the export was made from.</summary>
+    private static ExchangerResult AnalyseAndCheckHistory(string dir, DateTimeOffset start, Func<double, double> rf)
+    {
+        var x = PlantAnalysis.Run(PlantConfigurationReader.Load(Path.Combine(dir, "plant.json"))).Exchangers[0];
+        var ok = x.History.Samples.Where(s => s.Status == SampleStatus.Ok).ToList();
+        Assert.True(ok.Count > 0.9 * x.History.Samples.Count, $"{ok.Count} of {x.History.Samples.Count} usable");
+        var worst = ok.Max(s => Math.Abs(s.Evaluation.FoulingResistance - rf((s.Timestamp - start).TotalDays)));
+        Assert.True(worst < 2e-7, $"worst Rf error {worst:G3} m2K/W");
+        return x;
     }
 }
