@@ -42,6 +42,9 @@ public static partial class PlantConfigurationReader
             return null;
         var g = new ShellAndTubeGeometry(ds.Value, dout.Value, din.Value, length.Value, count.Value, pitch.Value, layout.Value, passes, baffles.Value, wall)
             { Baffles = details };
+        if (g.BellDelaware is { } bd && !(double.IsFinite(bd.Fc) && bd.Fc > 0 && double.IsFinite(bd.WindowArea) && bd.WindowArea > 0))
+            n.Error("baffleCut", "with this shell, bundle clearance and tube size the cut does not cross the bundle as the Bell–Delaware " +
+                "method needs; check baffleCut, bundleShellClearance and the diameters.");
         if (count > 1.05 * g.TubeCapacity)
             n.Error("tubeCount", FormattableString.Invariant($"{count} tubes do not fit a {ds * 1000:0} mm shell at this pitch and pass count (about {g.TubeCapacity:0} do); check the values."));
         if (area is { } a && Math.Abs(g.OutsideArea - a) > 0.15 * a)

@@ -119,6 +119,11 @@ public class PlantConfigurationReaderTests
         Assert.Contains(noCut.Errors, e => e.Path == "exchangers[0].clean" && e.Message.Contains("needs \"baffleCut\"", StringComparison.Ordinal));
         var wideCut = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"", geometry + ", \"baffleCut\": \"60 %\""));
         Assert.Contains(wideCut.Errors, e => e.Path == "exchangers[0].clean.baffleCut");
+        // a small shell whose bundle clearance leaves the outer tube limit inside the cut line (29 + 19.05 mm > 0.3·150
+        // mm): the window geometry is undefined
+        var outside = Fails(TestPlant.Interchanger().Replace("\"method\": \"datasheet\", \"u\": \"450 W/m2K\"",
+            geometry.Replace("489 mm", "150 mm") + ", \"baffleCut\": \"15 %\", \"bundleShellClearance\": \"29 mm\""));
+        Assert.Contains(outside.Errors, e => e.Path == "exchangers[0].clean.baffleCut" && e.Message.Contains("does not cross the bundle", StringComparison.Ordinal));
     }
 
     // A property-corrected baseline needs a fluid whose viscosity and conductivity are known.
