@@ -53,8 +53,8 @@ public static class PlantAnalysis
             var economics = StageClock.Time("economics", () => FoulingEconomics.Run(history, trend, config, current));
             results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics)
             {
-                PressureDrops = PressureDropTrend.Evaluate(x, ingest, history.Samples, config.Site.TimeZone),
-                WhatIf = WhatIf.Rate(x, history.Samples),
+                PressureDrops = PressureDropTrend.Evaluate(x, ingest, history.Columns, config.Site.TimeZone),
+                WhatIf = WhatIf.Rate(x, history.Columns),
             };
             progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
         });
@@ -102,22 +102,26 @@ public static class PlantAnalysis
     public static IReadOnlyDictionary<string, int> StatusCounts(ExchangerHistory h)
     {
         var counts = SampleStatusText.All.ToDictionary(s => s.Key(), _ => 0);
-        foreach (var s in h.Samples) counts[s.Status.Key()]++;
+        foreach (var s in h.Columns.Status) counts[s.Key()]++;
         return counts;
     }
 
     public static CurrentState Current(ExchangerHistory h)
     {
-        var ok = h.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.FoulingResistance)).ToList();
-        if (ok.Count == 0) return new CurrentState(null, 0, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN);
-        var last = ok[^1].Timestamp;
-        var day = ok.Where(s => s.Timestamp > last - TimeSpan.FromDays(1)).ToList();
-        double Median(Func<SampleResult, double> f)
+        var c = h.Columns;
+        var lastIndex = Enumerable.Range(0, c.Count).LastOrDefault(c.UsableRf, -1);
+        if (lastIndex < 0) return new CurrentState(null, 0, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN);
+        var last = c.Timestamp(lastIndex);
+        var day = new List<int>();
+        for (var k = lastIndex; k >= 0 && c.Timestamp(k) > last - TimeSpan.FromDays(1); k--)
+            if (c.UsableRf(k)) day.Add(k);
+        day.Reverse();
+        double Median(double[] column)
         {
-            var v = day.Select(f).Where(double.IsFinite).Order().ToArray();
+            var v = day.Select(k => column[k]).Where(double.IsFinite).Order().ToArray();
             return v.Length == 0 ? double.NaN : v.Length % 2 == 1 ? v[v.Length / 2] : 0.5 * (v[v.Length / 2 - 1] + v[v.Length / 2]);
         }
-        return new CurrentState(last, day.Count, Median(s => s.Evaluation.UActual), Median(s => s.Evaluation.UClean), Median(s => s.Evaluation.FoulingResistance),
-            Median(s => s.FoulingResistanceSigma), Median(s => s.Evaluation.Cleanliness), Median(s => s.Evaluation.Duty), Median(s => s.Evaluation.LostDuty));
+        return new CurrentState(last, day.Count, Median(c.UActual), Median(c.UClean), Median(c.FoulingResistance),
+            Median(c.Sigma), Median(c.Cleanliness), Median(c.Duty), Median(c.LostDuty));
     }
 }

@@ -12,11 +12,12 @@ public sealed record ArrangementDuty(string Arrangement, bool Actual, double Cle
 /// <summary>Re-rating at today's conditions by ε-NTU: the actual arrangement, counterflow and parallel flow.</summary>
 public static class WhatIf
 {
-    public static IReadOnlyList<ArrangementDuty> Rate(ExchangerConfiguration x, IReadOnlyList<SampleResult> samples)
+    public static IReadOnlyList<ArrangementDuty> Rate(ExchangerConfiguration x, SampleColumns samples)
     {
-        var last = samples.LastOrDefault(s => s.Status == SampleStatus.Ok && s.Evaluation.UClean > 0 && s.Evaluation.UActual > 0);
-        if (last is null) return [];
-        var e = last.Evaluation;
+        var k = samples.Count - 1;
+        while (k >= 0 && !(samples.Status[k] == SampleStatus.Ok && samples.UClean[k] > 0 && samples.UActual[k] > 0)) k--;
+        if (k < 0) return [];
+        var e = samples.Evaluation(k);
         var used = e.Reconciliation?.Adjusted ?? e.Measurements;
         var evaluator = new SampleEvaluator(x);
         var (thi, _, tci, _) = evaluator.TerminalTemperatures(used);

@@ -33,8 +33,18 @@ public sealed record SensorCheck(int Samples, double FractionFailingGlobalTest, 
 
 /// <summary>The back-calculated history of one exchanger.</summary>
 /// <param name="Drift">A lasting change of the heat balance (an instrument drifting) found over the whole record, or null.</param>
-public sealed record ExchangerHistory(ExchangerConfiguration Exchanger, IReadOnlyList<SampleResult> Samples, CleanReferenceReport CleanReference,
-    SensorCheck SensorCheck, string? Refusal, BalanceDrift? Drift = null);
+/// <param name="Columns">The samples in columns, index k the interval (see <see cref="SampleColumns"/>).</param>
+public sealed record ExchangerHistory(ExchangerConfiguration Exchanger, SampleColumns Columns, CleanReferenceReport CleanReference,
+    SensorCheck SensorCheck, string? Refusal, BalanceDrift? Drift = null)
+{
+    /// <summary>A history of the given samples (any timestamps), as tests and small callers build one.</summary>
+    public ExchangerHistory(ExchangerConfiguration exchanger, IReadOnlyList<SampleResult> samples, CleanReferenceReport cleanReference,
+        SensorCheck sensorCheck, string? refusal, BalanceDrift? drift = null)
+        : this(exchanger, SampleColumns.From(samples), cleanReference, sensorCheck, refusal, drift) { }
+
+    /// <summary>The samples as records, built one at a time on access; the columns are the cheaper way through many.</summary>
+    public IReadOnlyList<SampleResult> Samples => Columns.AsResults();
+}
 
 /// <summary>Turns the aligned historian data of an exchanger into per-sample duty, U, clean U, Rf with σ, and lost duty.</summary>
 public static class BackCalculator
@@ -57,34 +67,24 @@ public static class BackCalculator
         var frozenRun = settings.FrozenAfter > TimeSpan.Zero ? (int)Math.Ceiling(settings.FrozenAfter.Ticks / (double)data.Interval.Ticks) : 0;
         var frozen = frozenRun > 0 ? FrozenValues.Mark(series, n, Math.Max(2, frozenRun)) : Enumerable.Repeat(-1, n).ToArray();
         var tags = new[] { x.Hot.Flow, x.Hot.Inlet, x.Hot.Outlet, x.Cold.Flow, x.Cold.Inlet, x.Cold.Outlet };
-        var evaluations = new SampleEvaluation[n];
-        var status = new SampleStatus[n];
+        var c = new SampleColumns(n, data.GridStart, data.Interval, series, x.DutyBasis == DutyBasis.Reconciled);
+        var frozenDetail = tags.Select(t => $"{t.Tag} held one value for at least {settings.FrozenAfter.TotalHours:0.#} h").ToArray();
         Parallel.For(0, n, k =>
         {
             var m = new double[Measurement.Count];
             for (var i = 0; i < m.Length; i++) m[i] = series[i][k];
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
-            if (m.Any(double.IsNaN) || double.IsNaN(pHot) || double.IsNaN(pCold))
-            {
-                status[k] = SampleStatus.Missing;
-                evaluations[k] = new SampleEvaluation { Status = SampleStatus.Missing, Measurements = m };
-                return;
-            }
+            if (m.Any(double.IsNaN) || double.IsNaN(pHot) || double.IsNaN(pCold)) { c.Status[k] = SampleStatus.Missing; return; }
             if (m[Measurement.HotFlow] < x.DowntimeFlowFraction * hotReference || m[Measurement.ColdFlow] < x.DowntimeFlowFraction * coldReference)
             {
-                status[k] = SampleStatus.Downtime;
-                evaluations[k] = new SampleEvaluation { Status = SampleStatus.Downtime, Measurements = m };
+                c.Status[k] = SampleStatus.Downtime;
                 return;
             }
             if (frozen[k] >= 0)
             {
-                status[k] = SampleStatus.Frozen;
-                evaluations[k] = new SampleEvaluation
-                {
-                    Status = SampleStatus.Frozen, Measurements = m,
-                    Detail = $"{tags[frozen[k]].Tag} held one value for at least {settings.FrozenAfter.TotalHours:0.#} h",
-                };
+                c.Status[k] = SampleStatus.Frozen;
+                c.Detail[k] = frozenDetail[frozen[k]];
                 return;
             }
             var e = evaluator.Evaluate(m, pHot, pCold, reconcile: true);
@@ -92,70 +92,61 @@ public static class BackCalculator
                 e = e with { Status = SampleStatus.Balance, Detail = FormattableString.Invariant($"hot and cold duties differ by {e.BalanceMismatch:P1}") };
             if (e.Status == SampleStatus.Ok && !IsSteady(series, k, window, settings))
                 e = e with { Status = SampleStatus.Unsteady };
-            evaluations[k] = e;
-            status[k] = e.Status;
+            c.Set(k, e);
         });
 
-        var drift = BalanceDriftDetector.Detect(data, evaluations, evaluator, tags.Select(t => t.Tag).ToArray(), zone);
-        if (drift is not null) MarkDrift(data, evaluations, status, drift, zone ?? TimeZoneInfo.Utc);
+        var drift = BalanceDriftDetector.Detect(data, c, evaluator, tags.Select(t => t.Tag).ToArray(), zone);
+        if (drift is not null) MarkDrift(data, c, drift, zone ?? TimeZoneInfo.Utc);
 
-        var (clean, cleanReport) = CleanModel(x, data, evaluations, evaluator);
-        var cycles = CycleBaselines.Fit(x, data, evaluations, evaluator, clean, zone ?? TimeZoneInfo.Utc);
+        var (clean, cleanReport) = CleanModel(x, data, c, evaluator);
+        var cycles = CycleBaselines.Fit(x, data, c, evaluator, clean, zone ?? TimeZoneInfo.Utc);
         cleanReport = cleanReport with { Cycles = cycles.Cycles, CycleStatement = cycles.Statement };
         if (clean is null)
-            return new ExchangerHistory(x, Build(data, evaluations, new double[n]), cleanReport, SensorCheckOf(x, data, evaluations, evaluator),
+        {
+            for (var k = 0; k < n; k++) c.SetSigma(k, 0, 0, double.NaN);
+            return new ExchangerHistory(x, c, cleanReport, SensorCheckOf(x, data, c, evaluator),
                 $"no clean-U reference: {cleanReport.Refusal}", drift);
+        }
 
-        var systematic = new double[n];
         Parallel.For(0, n, k =>
         {
-            var e = evaluations[k];
-            if (!(e.UActual > 0)) { systematic[k] = double.NaN; return; }
-            var used = e.Reconciliation?.Adjusted ?? e.Measurements;
-            evaluations[k] = e = evaluator.Complete(e, clean, used);
+            if (!(c.UActual[k] > 0)) return;
+            var used = c.Used(k);
+            var e = evaluator.Complete(c.Evaluation(k), clean, used);
             if (e.Status == SampleStatus.Ok && e.Cleanliness > SampleStatusText.MaxCleanliness)
-                evaluations[k] = e = e with { Status = SampleStatus.Implausible, Detail = FormattableString.Invariant(
+                e = e with { Status = SampleStatus.Implausible, Detail = FormattableString.Invariant(
                     $"U = {e.UActual:0} W/m2K is {e.Cleanliness:0.0} times the clean U; check flow units and scales, the area and the clean reference") };
+            c.Set(k, e);
+            if (e.Status != SampleStatus.Ok) return;
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
-            if (e.Status != SampleStatus.Ok) { systematic[k] = double.NaN; return; }
             var instruments = evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean);
             var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(used);
             var reference = clean.InverseSigma(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
-            systematic[k] = Math.Sqrt(instruments * instruments + reference * reference);
+            c.SigmaSystematic[k] = Math.Sqrt(instruments * instruments + reference * reference);
         });
-        var random = RandomPart.PerSample(data, evaluations);
-        return new ExchangerHistory(x, Build(data, evaluations, systematic, random), cleanReport,
-            SensorCheckOf(x, data, evaluations, evaluator), null, drift);
+        var random = RandomPart.PerSample(data, c);
+        for (var k = 0; k < n; k++)
+        {
+            var (sys, rnd) = (c.SigmaSystematic[k], random[k]);
+            c.SetSigma(k, double.IsFinite(rnd) ? Math.Sqrt(sys * sys + rnd * rnd) : sys, sys, rnd);
+        }
+        return new ExchangerHistory(x, c, cleanReport, SensorCheckOf(x, data, c, evaluator), null, drift);
     }
 
     /// <summary>Samples from the drift onset that would otherwise be judged (ok, balance, unsteady) get the status drift.</summary>
-    private static void MarkDrift(IngestResult data, SampleEvaluation[] evaluations, SampleStatus[] status, BalanceDrift drift,
-        TimeZoneInfo zone)
+    private static void MarkDrift(IngestResult data, SampleColumns c, BalanceDrift drift, TimeZoneInfo zone)
     {
         var detail = drift.SingleSensor
             ? $"after the onset {SiteCalendar.Date(drift.Onset, zone)} of a drift on {drift.Tag}"
             : $"after the onset {SiteCalendar.Date(drift.Onset, zone)} of a heat-balance change";
-        for (var k = 0; k < evaluations.Length; k++)
+        for (var k = 0; k < c.Count; k++)
         {
             if (data.IntervalStart(k) < drift.Onset) continue;
-            if (evaluations[k].Status is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
-            evaluations[k] = evaluations[k] with { Status = SampleStatus.Drift, Detail = detail };
-            status[k] = SampleStatus.Drift;
+            if (c.Status[k] is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
+            c.Status[k] = SampleStatus.Drift;
+            c.Detail[k] = detail;
         }
-    }
-
-    private static List<SampleResult> Build(IngestResult data, SampleEvaluation[] evaluations, double[] systematic, double[]? random = null)
-    {
-        var list = new List<SampleResult>(evaluations.Length);
-        for (var k = 0; k < evaluations.Length; k++)
-        {
-            var sys = systematic[k];
-            var rnd = random?[k] ?? double.NaN;
-            var combined = double.IsFinite(rnd) ? Math.Sqrt(sys * sys + rnd * rnd) : sys;
-            list.Add(new SampleResult(data.IntervalStart(k), evaluations[k].Status, evaluations[k], combined, sys, rnd));
-        }
-        return list;
     }
 
     /// <summary>Windowed range test over the trailing window: each flow within a band of its mean and each inlet temperature within a band in K; needs half the window present.</summary>
@@ -188,7 +179,7 @@ public static class BackCalculator
         return v.Length == 0 ? double.NaN : v[(int)Math.Clamp(Math.Round(p * (v.Length - 1)), 0, v.Length - 1)];
     }
 
-    private static (ICleanUModel?, CleanReferenceReport) CleanModel(ExchangerConfiguration x, IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator)
+    private static (ICleanUModel?, CleanReferenceReport) CleanModel(ExchangerConfiguration x, IngestResult data, SampleColumns evaluations, SampleEvaluator evaluator)
     {
         var tubePhase = x.Tube.Fluid.IsPhaseChange;
         var shellPhase = x.Shell.Fluid.IsPhaseChange;
@@ -229,11 +220,11 @@ public static class BackCalculator
     /// relative to its median bulk temperature over the calibration window (any reference would do: it scales the
     /// fitted coefficient), with the side's flow exponent.</summary>
     private static (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) BaselineScalings(ExchangerConfiguration x,
-        SampleEvaluation[] evaluations, SampleEvaluator evaluator, IngestResult data, DateTimeOffset start, DateTimeOffset end)
+        SampleColumns evaluations, SampleEvaluator evaluator, IngestResult data, DateTimeOffset start, DateTimeOffset end)
     {
-        var bulks = Enumerable.Range(0, evaluations.Length)
-            .Where(k => data.IntervalStart(k) >= start && data.IntervalStart(k) < end && evaluations[k].Status == SampleStatus.Ok)
-            .Select(k => evaluator.BulkTemperatures(evaluations[k].Measurements)).ToList();
+        var bulks = Enumerable.Range(0, evaluations.Count)
+            .Where(k => data.IntervalStart(k) >= start && data.IntervalStart(k) < end && evaluations.Status[k] == SampleStatus.Ok)
+            .Select(k => evaluator.BulkTemperatures(evaluations.Measurements(k))).ToList();
         FilmPropertyScaling? For(StreamConfiguration side, Func<(double Tube, double Shell), double> pick, double n)
         {
             if (bulks.Count == 0 || side.Fluid.IsPhaseChange || side.Fluid is not Core.FluidModels.ITransportFluid fluid) return null;
@@ -244,16 +235,16 @@ public static class BackCalculator
     }
 
     /// <summary>The usable samples in [start, end) as Wilson-plot rows, weighted by 1/σ²(1/U).</summary>
-    public static List<WilsonRow> CalibrationRows(IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator,
+    public static List<WilsonRow> CalibrationRows(IngestResult data, SampleColumns evaluations, SampleEvaluator evaluator,
         DateTimeOffset start, DateTimeOffset end, double nt, double ns,
         (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default)
     {
         var rows = new List<WilsonRow>();
-        for (var k = 0; k < evaluations.Length; k++)
+        for (var k = 0; k < evaluations.Count; k++)
         {
             var t = data.IntervalStart(k);
-            var e = evaluations[k];
-            if (t < start || t >= end || e.Status != SampleStatus.Ok || !(e.UActual > 0)) continue;
+            if (t < start || t >= end || evaluations.Status[k] != SampleStatus.Ok || !(evaluations.UActual[k] > 0)) continue;
+            var e = evaluations.Evaluation(k);
             var sigmaU = SigmaOfInverseU(evaluator, e);
             var w = sigmaU > 0 ? 1 / (sigmaU * sigmaU) : 1;
             var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(e.Measurements);
@@ -263,10 +254,10 @@ public static class BackCalculator
         return rows;
     }
 
-    private static DateTimeOffset? FirstOk(IngestResult data, SampleEvaluation[] evaluations)
+    private static DateTimeOffset? FirstOk(IngestResult data, SampleColumns evaluations)
     {
-        for (var k = 0; k < evaluations.Length; k++)
-            if (evaluations[k].Status == SampleStatus.Ok) return data.IntervalStart(k);
+        for (var k = 0; k < evaluations.Count; k++)
+            if (evaluations.Status[k] == SampleStatus.Ok) return data.IntervalStart(k);
         return null;
     }
 
@@ -278,9 +269,9 @@ public static class BackCalculator
         return evaluator.FoulingResistanceSigma(e.Measurements, x.Hot.PressurePascals, x.Cold.PressurePascals, infinite);
     }
 
-    private static SensorCheck SensorCheckOf(ExchangerConfiguration x, IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator)
+    private static SensorCheck SensorCheckOf(ExchangerConfiguration x, IngestResult data, SampleColumns evaluations, SampleEvaluator evaluator)
     {
-        var lastIndex = Array.FindLastIndex(evaluations, e => e.Status is SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady);
+        var lastIndex = Array.FindLastIndex(evaluations.Status, s => s is SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady);
         if (lastIndex < 0) return new SensorCheck(0, 0, null, null, null, null, null, false, "no sample with both duties to check");
         var from = data.IntervalStart(lastIndex) - TimeSpan.FromDays(14);
         var fs = new List<double>();
@@ -288,8 +279,9 @@ public static class BackCalculator
         var fails = 0;
         for (var k = 0; k <= lastIndex; k++)
         {
-            var e = evaluations[k];
-            if (data.IntervalStart(k) < from || e.Status is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
+            if (data.IntervalStart(k) < from
+                || evaluations.Status[k] is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady)) continue;
+            var e = evaluations.Evaluation(k);
             var m = e.Measurements;
             var sigma = evaluator.Sigmas(m);
             var rec = Reconciliation.Reconcile(m, sigma, v =>
@@ -325,7 +317,7 @@ public static class BackCalculator
         var tags = new[] { x.Hot.Flow, x.Hot.Inlet, x.Hot.Outlet, x.Cold.Flow, x.Cold.Inlet, x.Cold.Outlet };
         var isFlow = best is Measurement.HotFlow or Measurement.ColdFlow;
         // A bias δ explains the mismatch f when f ≈ J·δ; the measured value is then δ too high (the sensor reads δ above truth).
-        var typicalSigma = evaluator.Sigmas(evaluations[lastIndex].Measurements)[best];
+        var typicalSigma = evaluator.Sigmas(evaluations.Measurements(lastIndex))[best];
         var likely = fraction > 0.5 && bestR2 >= 0.8 && Math.Abs(bestDelta) > 2 * typicalSigma;
         var unit = isFlow ? "kg/s" : "K";
         // A stream's inlet and outlet enter the balance with opposite sensitivities: a bias on one looks like the opposite

@@ -31,7 +31,7 @@ public static class BalanceDriftDetector
     public const int ReferenceDays = 30, MinimumDays = 28, MinimumDaysBefore = 14, MinimumSamplesPerDay = 6, MaximumAttributionSamples = 4000;
     public const double MinimumShift = 0.005, MinimumSigma = 0.001, ExplainedNeeded = 0.6;
 
-    public static BalanceDrift? Detect(IngestResult data, SampleEvaluation[] evaluations, SampleEvaluator evaluator, IReadOnlyList<string> tags,
+    public static BalanceDrift? Detect(IngestResult data, SampleColumns evaluations, SampleEvaluator evaluator, IReadOnlyList<string> tags,
         TimeZoneInfo? zone = null)
     {
         zone ??= TimeZoneInfo.Utc;
@@ -62,7 +62,7 @@ public static class BalanceDriftDetector
     }
 
     /// <summary>Days since the grid start (integer UTC days) and the median relative mismatch of each day with enough samples.</summary>
-    public static (double[] Days, double[] Values) DailyMismatch(IngestResult data, SampleEvaluation[] evaluations)
+    public static (double[] Days, double[] Values) DailyMismatch(IngestResult data, SampleColumns evaluations)
     {
         var days = new List<double>();
         var values = new List<double>();
@@ -74,14 +74,12 @@ public static class BalanceDriftDetector
             if (buffer.Count >= MinimumSamplesPerDay) { buffer.Sort(); days.Add(current); values.Add(Median(buffer)); }
             buffer.Clear();
         }
-        for (var k = 0; k < evaluations.Length; k++)
+        for (var k = 0; k < evaluations.Count; k++)
         {
-            var e = evaluations[k];
-            if (e is null || e.Status is not (SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady) || !double.IsFinite(e.BalanceMismatch))
-                continue;
+            if (!HasBothDuties(evaluations, k)) continue;
             var day = (int)(data.IntervalStart(k).UtcDateTime.Date - startDay).TotalDays;
             if (day != current) { Flush(); current = day; }
-            buffer.Add(e.BalanceMismatch);
+            buffer.Add(evaluations.BalanceMismatch[k]);
         }
         Flush();
         var offset = (data.GridStart.UtcDateTime - startDay).TotalDays;
@@ -127,13 +125,16 @@ public static class BalanceDriftDetector
         return (best.Onset, best.Form, best.Level, best.Value);
     }
 
-    private static (SensorBias[] Ranked, List<string> Suspects) Attribute(IngestResult data, SampleEvaluation[] evaluations,
+    /// <summary>Whether sample k has both duties and a mismatch (usable, or out only for balance or steadiness).</summary>
+    private static bool HasBothDuties(SampleColumns c, int k) =>
+        c.Status[k] is SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady && double.IsFinite(c.BalanceMismatch[k]);
+
+    private static (SensorBias[] Ranked, List<string> Suspects) Attribute(IngestResult data, SampleColumns evaluations,
         SampleEvaluator evaluator, IReadOnlyList<string> tags, DateTimeOffset onset, double level)
     {
         var indexes = new List<int>();
-        for (var k = 0; k < evaluations.Length; k++)
-            if (data.IntervalStart(k) >= onset && evaluations[k] is { Status: SampleStatus.Ok or SampleStatus.Balance or SampleStatus.Unsteady } e
-                && double.IsFinite(e.BalanceMismatch))
+        for (var k = 0; k < evaluations.Count; k++)
+            if (data.IntervalStart(k) >= onset && HasBothDuties(evaluations, k))
                 indexes.Add(k);
         var stride = Math.Max(1, indexes.Count / MaximumAttributionSamples);
         var f = new List<double>();
@@ -141,7 +142,7 @@ public static class BalanceDriftDetector
         var tau = new List<double>();
         for (var s = 0; s < indexes.Count; s += stride)
         {
-            var e = evaluations[indexes[s]];
+            var e = evaluations.Evaluation(indexes[s]);
             var sens = e.Reconciliation?.Sensitivities ?? BiasAttribution.Sensitivities(evaluator, e.Measurements);
             if (sens.Any(double.IsNaN)) continue;
             // the mismatch as it was before the onset (a constant calibration offset) is not the drift

@@ -23,7 +23,7 @@ public static class CycleBaselines
     public const double Notable = 0.10;
 
     public static (IReadOnlyList<CycleBaseline>? Cycles, string? Statement) Fit(ExchangerConfiguration x, IngestResult data,
-        SampleEvaluation[] evaluations, SampleEvaluator evaluator, ICleanUModel? reference, TimeZoneInfo zone)
+        SampleColumns evaluations, SampleEvaluator evaluator, ICleanUModel? reference, TimeZoneInfo zone)
     {
         var gridEnd = data.IntervalStart(data.IntervalCount);
         var window = x.Clean is BaselineCleanReference b ? b.Duration : DefaultWindow;
@@ -49,14 +49,15 @@ public static class CycleBaselines
         return (list, Statement(list, x.Clean is BaselineCleanReference ? null : reference, tubeRef, shellRef, zone));
     }
 
-    private static (double Tube, double Shell) ReferenceFlows(ExchangerConfiguration x, SampleEvaluation[] evaluations)
+    private static (double Tube, double Shell) ReferenceFlows(ExchangerConfiguration x, SampleColumns evaluations)
     {
-        double Median(Func<SampleEvaluation, double> f)
+        double Median(double[] column)
         {
-            var v = evaluations.Where(e => e.Status == SampleStatus.Ok).Select(f).Where(double.IsFinite).Order().ToArray();
+            var v = Enumerable.Range(0, evaluations.Count).Where(k => evaluations.Status[k] == SampleStatus.Ok).Select(k => column[k])
+                .Where(double.IsFinite).Order().ToArray();
             return v.Length == 0 ? double.NaN : v[v.Length / 2];
         }
-        return (x.Tube.DesignFlow ?? Median(e => e.TubeFlow), x.Shell.DesignFlow ?? Median(e => e.ShellFlow));
+        return (x.Tube.DesignFlow ?? Median(evaluations.TubeFlow), x.Shell.DesignFlow ?? Median(evaluations.ShellFlow));
     }
 
     private static string? Statement(List<CycleBaseline> list, ICleanUModel? datasheet, double tubeRef, double shellRef, TimeZoneInfo zone)

@@ -47,7 +47,7 @@ public static class PressureDropTrend
     public const double FlowExponent = 1.8;
     private static readonly TimeSpan Week = TimeSpan.FromDays(7);
 
-    public static IReadOnlyList<PressureDropChange> Evaluate(ExchangerConfiguration x, IngestResult data, IReadOnlyList<SampleResult> samples,
+    public static IReadOnlyList<PressureDropChange> Evaluate(ExchangerConfiguration x, IngestResult data, SampleColumns samples,
         TimeZoneInfo zone)
     {
         var list = new List<PressureDropChange>();
@@ -56,7 +56,7 @@ public static class PressureDropTrend
             if (stream.PressureDropTag is not { } tag || !data.Series.TryGetValue(tag.Tag, out var dp)) continue;
             var flow = data.Series[stream.Flow.Tag];
             var running = Enumerable.Range(0, Math.Min(samples.Count, dp.Length))
-                .Where(k => samples[k].Status is not (SampleStatus.Missing or SampleStatus.Downtime) && dp[k] > 0 && flow[k] > 0).ToList();
+                .Where(k => samples.Status[k] is not (SampleStatus.Missing or SampleStatus.Downtime) && dp[k] > 0 && flow[k] > 0).ToList();
             if (running.Count < 10) continue;
             var reference = stream.DesignFlow ?? Median(running.Select(k => flow[k]));
             var gridEnd = data.IntervalStart(data.IntervalCount);
@@ -100,14 +100,14 @@ public static class PressureDropTrend
     /// it at a more conductive deposit, debris or a valve.
     /// </summary>
     private static (double? FromDrop, double? FromRf, string Text) Deposits(Ingest.Configuration.StreamConfiguration stream,
-        IReadOnlyList<SampleResult> samples, IngestResult data, DateTimeOffset start, DateTimeOffset end, double ratio)
+        SampleColumns samples, IngestResult data, DateTimeOffset start, DateTimeOffset end, double ratio)
     {
         if (stream.TubeInnerDiameter is not { } bore || stream.DepositConductivity is not { } k) return (null, null, "");
         var fromDrop = ratio > 1 ? bore / 2 * (1 - Math.Pow(ratio, -1 / 4.75)) : 0;
         double? WeekRf(Func<DateTimeOffset, bool> inWeek)
         {
-            var v = samples.Where(s => s.Status == SampleStatus.Ok && inWeek(s.Timestamp) && double.IsFinite(s.Evaluation.FoulingResistance))
-                .Select(s => s.Evaluation.FoulingResistance).ToList();
+            var v = Enumerable.Range(0, samples.Count).Where(k => samples.UsableRf(k) && inWeek(samples.Timestamp(k)))
+                .Select(k => samples.FoulingResistance[k]).ToList();
             return v.Count < 5 ? null : Median(v);
         }
         var rfFirst = WeekRf(t => t >= start && t < start + Week);
@@ -133,7 +133,7 @@ public static class PressureDropTrend
     /// reference: the median referred drop of its first week with data.
     /// </summary>
     private static (double[] Ratio, string Basis) Ratios(ExchangerConfiguration x, StreamConfiguration stream, string side, IngestResult data,
-        IReadOnlyList<SampleResult> samples, double[] dp, double[] flow, List<int> running, double reference)
+        SampleColumns samples, double[] dp, double[] flow, List<int> running, double reference)
     {
         var ratio = new double[dp.Length];
         Array.Fill(ratio, double.NaN);
@@ -144,8 +144,7 @@ public static class PressureDropTrend
             var pressure = new Core.Quantities.Pressure(stream.PressurePascals);
             foreach (var k in running)
             {
-                var m = samples[k].Evaluation.Measurements;
-                if (m is not { Length: Measurement.Count }) continue;
+                var m = samples.Measurements(k);
                 var bulk = Core.Quantities.Temperature.FromKelvin(hot
                     ? 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]) : 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]));
                 try

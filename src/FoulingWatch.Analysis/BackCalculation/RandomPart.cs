@@ -14,9 +14,9 @@ public static class RandomPart
 {
     public const int MinimumSamples = 6;
 
-    public static double[] PerSample(IngestResult data, SampleEvaluation[] evaluations)
+    public static double[] PerSample(IngestResult data, SampleColumns evaluations)
     {
-        var n = evaluations.Length;
+        var n = evaluations.Count;
         var result = new double[n];
         Array.Fill(result, double.NaN);
         var days = new List<(int From, int To, double Spread)>();
@@ -34,17 +34,17 @@ public static class RandomPart
         {
             var s = double.IsFinite(spread) ? spread : fallback;
             for (var i = from; i < to; i++)
-                if (evaluations[i].Status == SampleStatus.Ok && double.IsFinite(evaluations[i].FoulingResistance)) result[i] = s;
+                if (evaluations.UsableRf(i)) result[i] = s;
         }
         return result;
     }
 
-    private static double Spread(SampleEvaluation[] evaluations, int from, int to)
+    private static double Spread(SampleColumns evaluations, int from, int to)
     {
         var values = new List<double>();
         for (var i = from; i < to; i++)
-            if (evaluations[i].Status == SampleStatus.Ok && double.IsFinite(evaluations[i].FoulingResistance))
-                values.Add(evaluations[i].FoulingResistance);
+            if (evaluations.UsableRf(i))
+                values.Add(evaluations.FoulingResistance[i]);
         if (values.Count < MinimumSamples) return double.NaN;
         var sorted = values.Order().ToArray();
         var median = Median(sorted);

@@ -50,13 +50,13 @@ public static class FoulingEconomics
     /// <summary>Lost energy per interval (J): usable samples as computed, downtime zero, other operating intervals holding the last usable value.</summary>
     public static double[] LostEnergyPerInterval(ExchangerHistory h, TimeSpan interval)
     {
-        var result = new double[h.Samples.Count];
+        var c = h.Columns;
+        var result = new double[c.Count];
         var last = 0.0;
-        for (var k = 0; k < h.Samples.Count; k++)
+        for (var k = 0; k < c.Count; k++)
         {
-            var s = h.Samples[k];
-            if (s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.LostDuty)) last = Math.Max(0, s.Evaluation.LostDuty);
-            result[k] = s.Status == SampleStatus.Downtime ? 0 : last * interval.TotalSeconds;
+            if (c.Status[k] == SampleStatus.Ok && double.IsFinite(c.LostDuty[k])) last = Math.Max(0, c.LostDuty[k]);
+            result[k] = c.Status[k] == SampleStatus.Downtime ? 0 : last * interval.TotalSeconds;
         }
         return result;
     }
@@ -64,8 +64,8 @@ public static class FoulingEconomics
     public static CostTotals Totals(ExchangerHistory h, double[] lost, Pricing p, DateTimeOffset from, DateTimeOffset to)
     {
         var energy = 0.0;
-        for (var k = 0; k < h.Samples.Count; k++)
-            if (h.Samples[k].Timestamp >= from && h.Samples[k].Timestamp < to) energy += lost[k];
+        for (var k = 0; k < h.Columns.Count; k++)
+            if (h.Columns.Timestamp(k) >= from && h.Columns.Timestamp(k) < to) energy += lost[k];
         return new CostTotals(from, to, energy, energy * p.FuelPerJoule, energy * p.Co2PerJoule, energy * p.MoneyPerJoule);
     }
 
@@ -76,14 +76,15 @@ public static class FoulingEconomics
 
     public static TypicalConditions? Typical(ExchangerHistory h)
     {
-        var recent = h.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.UClean)).TakeLast(30 * 144).ToList();
-        if (recent.Count == 0) return null;
-        double Med(Func<SampleResult, double> f) => DailyFouling.Median(recent.Select(f).Order().ToArray());
-        var (thi, tci) = (Med(s => s.Evaluation.Measurements[Measurement.HotInlet]), Med(s => s.Evaluation.Measurements[Measurement.ColdInlet]));
+        var c = h.Columns;
+        var recent = c.RecentWithCleanU(30 * 144);
+        if (recent.Length == 0) return null;
+        double Med(double[] column) => SampleColumns.MedianAt(column, recent);
+        var (thi, tci) = (Med(c.Measured[Measurement.HotInlet]), Med(c.Measured[Measurement.ColdInlet]));
         if (h.Exchanger.Hot.Fluid is Core.FluidModels.SteamPhaseChange hs) thi = hs.SaturationTemperature.Kelvin;
         if (h.Exchanger.Cold.Fluid is Core.FluidModels.SteamPhaseChange cs) tci = cs.SaturationTemperature.Kelvin;
-        return new TypicalConditions(Med(s => s.Evaluation.HotCapacityRate), Med(s => s.Evaluation.ColdCapacityRate),
-            Temperature.FromKelvin(thi), Temperature.FromKelvin(tci), Med(s => s.Evaluation.UClean), Med(s => s.Evaluation.Duty));
+        return new TypicalConditions(Med(c.HotCapacityRate), Med(c.ColdCapacityRate),
+            Temperature.FromKelvin(thi), Temperature.FromKelvin(tci), Med(c.UClean), Med(c.Duty));
     }
 
     /// <summary>Lost duty (W) at typical conditions for a fouling resistance: Q(U_clean) − Q(U) with 1/U = 1/U_clean + Rf, by ε-NTU.</summary>
@@ -101,8 +102,8 @@ public static class FoulingEconomics
         if (pricing is null)
             return new ExchangerEconomics(x.Id, null, why, null, null, null, 0, 0, null, null, null, null, why!);
         var lost = LostEnergyPerInterval(h, config.Data.Interval);
-        var end = h.Samples.Count > 0 ? h.Samples[^1].Timestamp + config.Data.Interval : DateTimeOffset.MinValue;
-        var start = h.Samples.Count > 0 ? h.Samples[0].Timestamp : end;
+        var end = h.Columns.Count > 0 ? h.Columns.Timestamp(h.Columns.Count - 1) + config.Data.Interval : DateTimeOffset.MinValue;
+        var start = h.Columns.Count > 0 ? h.Columns.Timestamp(0) : end;
         var cycle = trend.Cycles.Count > 0 ? trend.Cycles[^1] : null;
         var currentCycle = cycle is null ? null : Totals(h, lost, pricing, cycle.Start, end);
         var lastYear = Totals(h, lost, pricing, end - LastYear, end);

@@ -24,18 +24,18 @@ public static class DailyFouling
 {
     public const int MinimumSamples = 6;
 
-    public static List<DailyPoint> Resample(IReadOnlyList<SampleResult> samples)
+    public static List<DailyPoint> Resample(SampleColumns samples)
     {
         var result = new List<DailyPoint>();
-        foreach (var day in samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.FoulingResistance))
-                     .GroupBy(s => new DateTimeOffset(s.Timestamp.UtcDateTime.Date, TimeSpan.Zero)).OrderBy(g => g.Key))
+        foreach (var day in Enumerable.Range(0, samples.Count).Where(samples.UsableRf)
+                     .GroupBy(k => new DateTimeOffset(samples.Timestamp(k).UtcDateTime.Date, TimeSpan.Zero)).OrderBy(g => g.Key))
         {
-            var v = day.Select(s => s.Evaluation.FoulingResistance).Order().ToArray();
+            var v = day.Select(k => samples.FoulingResistance[k]).Order().ToArray();
             if (v.Length < MinimumSamples) continue;
             var median = Median(v);
             var mad = Median(v.Select(x => Math.Abs(x - median)).Order().ToArray()) * 1.4826;
-            var sampleRandom = Median(day.Select(RandomSigma).Where(double.IsFinite).Order().ToArray());
-            var systematic = Median(day.Select(s => s.SigmaSystematic).Where(double.IsFinite).Order().ToArray());
+            var sampleRandom = Median(day.Select(k => RandomSigma(samples, k)).Where(double.IsFinite).Order().ToArray());
+            var systematic = Median(day.Select(k => samples.SigmaSystematic[k]).Where(double.IsFinite).Order().ToArray());
             var s = Math.Max(mad, double.IsFinite(sampleRandom) ? sampleRandom : 0);
             result.Add(new DailyPoint(day.Key, median, Math.Sqrt(Math.PI / 2) * s / Math.Sqrt(v.Length), v.Length,
                 double.IsFinite(systematic) ? systematic : 0));
@@ -44,8 +44,8 @@ public static class DailyFouling
     }
 
     /// <summary>A sample's random σ; a sample without the split (systematic not evaluated) counts its σ as random.</summary>
-    private static double RandomSigma(SampleResult s) =>
-        double.IsFinite(s.SigmaRandom) ? s.SigmaRandom : double.IsFinite(s.SigmaSystematic) ? double.NaN : s.FoulingResistanceSigma;
+    private static double RandomSigma(SampleColumns s, int k) =>
+        double.IsFinite(s.SigmaRandom[k]) ? s.SigmaRandom[k] : double.IsFinite(s.SigmaSystematic[k]) ? double.NaN : s.Sigma[k];
 
     public static double Median(double[] sorted) =>
         sorted.Length == 0 ? double.NaN : sorted.Length % 2 == 1 ? sorted[sorted.Length / 2] : 0.5 * (sorted[sorted.Length / 2 - 1] + sorted[sorted.Length / 2]);

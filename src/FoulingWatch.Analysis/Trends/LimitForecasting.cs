@@ -73,7 +73,7 @@ public static class LimitForecasting
         var f = new LimitForecast(l, source, state, At(0.5), At(0.05), At(0.95), At(0.10), At(0.90), reachedNow, beyond, now, horizon,
             risks, "");
         var statement = Statement(f, Laws(cycle), zone);
-        var lastData = history.Samples.Count > 0 ? history.Samples[^1].Timestamp : cycle.End;
+        var lastData = history.Columns.Count > 0 ? history.Columns.Timestamp(history.Columns.Count - 1) : cycle.End;
         if ((lastData - cycle.Points[^1].Day).TotalDays > 7)
             statement += FormattableString.Invariant(
                 $"; note: the last usable day is {Economics.DecisionText.Date(cycle.Points[^1].Day, zone)}, {(lastData - cycle.Points[^1].Day).TotalDays:0} days before the end of the data — see the sample statuses and the sensor check");

@@ -14,7 +14,7 @@ public static class Outages
     public static readonly TimeSpan Reach = TimeSpan.FromDays(4), Bridge = TimeSpan.FromHours(6);
 
     /// <summary>Start of the first and end of the last downtime interval of the outage, or null when none is near.</summary>
-    public static (DateTimeOffset Start, DateTimeOffset End)? Near(IReadOnlyList<SampleResult> samples, DateTimeOffset date, TimeSpan interval)
+    public static (DateTimeOffset Start, DateTimeOffset End)? Near(SampleColumns samples, DateTimeOffset date, TimeSpan interval)
     {
         (DateTimeOffset Start, DateTimeOffset End)? best = null;
         DateTimeOffset? runStart = null, runEnd = null;
@@ -23,16 +23,18 @@ public static class Outages
             if (runStart is { } s && runEnd is { } e && (best is null || e - s > best.Value.End - best.Value.Start)) best = (s, e);
             runStart = runEnd = null;
         }
-        foreach (var p in samples)
+        for (var k = 0; k < samples.Count; k++)
         {
-            if (p.Timestamp < date - Reach) continue;
-            if (p.Timestamp > date + Reach) break;
-            if (p.Status == SampleStatus.Downtime)
+            var t = samples.Timestamp(k);
+            if (t < date - Reach) continue;
+            if (t > date + Reach) break;
+            var status = samples.Status[k];
+            if (status == SampleStatus.Downtime)
             {
-                runStart ??= p.Timestamp;
-                runEnd = p.Timestamp + interval;
+                runStart ??= t;
+                runEnd = t + interval;
             }
-            else if (p.Status != SampleStatus.Missing || (runEnd is { } e && p.Timestamp - e >= Bridge)) Close();
+            else if (status != SampleStatus.Missing || (runEnd is { } e && t - e >= Bridge)) Close();
         }
         Close();
         return best;

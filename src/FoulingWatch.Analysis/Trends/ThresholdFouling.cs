@@ -45,8 +45,10 @@ public sealed class ThresholdFouling : FoulingModel
         var designTube = x.Tube.DesignFlow;
         if (designTube is null) return null;
         var tubeIsHot = x.Tube == x.Hot;
-        var days = h.Samples.Where(p => p.Timestamp >= start && p.Timestamp < end && p.Status == SampleStatus.Ok && p.Evaluation.Measurements.Length == Measurement.Count)
-            .GroupBy(p => (int)Math.Floor((p.Timestamp - start).TotalDays)).OrderBy(g => g.Key).ToList();
+        var c = h.Columns;
+        var days = Enumerable.Range(0, c.Count).Where(k => c.Timestamp(k) >= start && c.Timestamp(k) < end && c.Status[k] == SampleStatus.Ok
+                && double.IsFinite(c.Measured[Measurement.HotFlow][k]))
+            .GroupBy(k => (int)Math.Floor((c.Timestamp(k) - start).TotalDays)).OrderBy(g => g.Key).ToList();
         if (days.Count < 2) return null;
         var t = new double[days.Count];
         var x1 = new double[days.Count];
@@ -57,9 +59,9 @@ public sealed class ThresholdFouling : FoulingModel
         for (var i = 0; i < days.Count; i++)
         {
             double d1 = 0, d2 = 0;
-            foreach (var p in days[i])
+            foreach (var k in days[i])
             {
-                var m = p.Evaluation.Measurements;
+                var m = c.Measurements(k);
                 var flow = tubeIsHot ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
                 var bulk = tubeIsHot ? 0.5 * (m[Measurement.HotInlet] + m[Measurement.HotOutlet]) : 0.5 * (m[Measurement.ColdInlet] + m[Measurement.ColdOutlet]);
                 var re = s.ReynoldsAtDesign * flow / designTube.Value;

@@ -57,15 +57,16 @@ public static class TrendAnalysis
     public static TrendResult Run(ExchangerHistory history, IReadOnlyList<ShutdownWindow>? windows = null, TimeZoneInfo? zone = null)
     {
         var x = history.Exchanger;
-        var daily = DailyFouling.Resample(history.Samples);
+        var daily = DailyFouling.Resample(history.Columns);
         var logged = x.Maintenance.Where(m => m.IsCleaning).Select(m => m.Date).ToList();
         var suppressed = x.Maintenance.Where(m => m.Action.Equals("not-cleaned", StringComparison.OrdinalIgnoreCase)).Select(m => m.Date).ToList();
-        var interval = history.Samples.Count > 1 ? history.Samples[1].Timestamp - history.Samples[0].Timestamp : TimeSpan.FromMinutes(10);
+        var c = history.Columns;
+        var interval = c.Count > 1 ? c.Timestamp(1) - c.Timestamp(0) : TimeSpan.FromMinutes(10);
         // A detected cleaning is dated by its outage when the data show one: the restart starts the new cycle.
-        var detected = CleaningDetection.Detect(daily, logged, suppressed).Select(c =>
-            Outages.Near(history.Samples, c.Date - TimeSpan.FromDays(1), interval) is { } o
-                ? c with { Date = o.End, OutageStart = o.Start, OutageEnd = o.End } : c).ToList();
-        var cleanings = logged.Select(d => Outages.Near(history.Samples, d, interval) is { } o
+        var detected = CleaningDetection.Detect(daily, logged, suppressed).Select(d =>
+            Outages.Near(c, d.Date - TimeSpan.FromDays(1), interval) is { } o
+                ? d with { Date = o.End, OutageStart = o.Start, OutageEnd = o.End } : d).ToList();
+        var cleanings = logged.Select(d => Outages.Near(c, d, interval) is { } o
                 ? new Cleaning(d, CleaningSource.Logged, null, null, null, null, o.Start, o.End)
                 : new Cleaning(d, CleaningSource.Logged, null, null, null, null))
             .Concat(detected).OrderBy(c => c.Date).ToList();
@@ -222,14 +223,15 @@ public static class TrendAnalysis
     {
         var x = history.Exchanger;
         if (x.Limits.FoulingResistance is { } rf) return (rf, "configured fouling-resistance limit");
-        var recent = history.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(s.Evaluation.UClean)).TakeLast(30 * 144).ToList();
-        if (recent.Count == 0 || (x.Limits.MinimumDuty is null && x.Limits.MinimumColdOutlet is null)) return null;
-        double Med(Func<SampleResult, double> f) => DailyFouling.Median(recent.Select(f).Order().ToArray());
-        var ch = Med(s => s.Evaluation.HotCapacityRate);
-        var cc = Med(s => s.Evaluation.ColdCapacityRate);
-        var thi = Temperature.FromKelvin(Med(s => s.Evaluation.Measurements[Measurement.HotInlet]));
-        var tci = Temperature.FromKelvin(Med(s => s.Evaluation.Measurements[Measurement.ColdInlet]));
-        var uc = Med(s => s.Evaluation.UClean);
+        var c = history.Columns;
+        var recent = c.RecentWithCleanU(30 * 144);
+        if (recent.Length == 0 || (x.Limits.MinimumDuty is null && x.Limits.MinimumColdOutlet is null)) return null;
+        double Med(double[] column) => SampleColumns.MedianAt(column, recent);
+        var ch = Med(c.HotCapacityRate);
+        var cc = Med(c.ColdCapacityRate);
+        var thi = Temperature.FromKelvin(Med(c.Measured[Measurement.HotInlet]));
+        var tci = Temperature.FromKelvin(Med(c.Measured[Measurement.ColdInlet]));
+        var uc = Med(c.UClean);
         Func<double, double> metric = x.Limits.MinimumDuty is not null
             ? u => Rating.Rate(x.Arrangement, u * x.Area, ch, cc, thi, tci).Duty
             : u => Rating.Rate(x.Arrangement, u * x.Area, ch, cc, thi, tci).ColdOutlet.Kelvin;

@@ -225,8 +225,12 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
         var result = PlantAnalysis.Run(config, aligned);
         ResultWriter.Write(result, settings.Out);
         var summary = JsonSerializer.Serialize(ResultWriter.Summary(result), ResultWriter.Json);
-        store.SaveAnalysis(clock.GetUtcNow(), summary, result.Exchangers.SelectMany(x => x.History.Samples.Select(s =>
-            (x.History.Exchanger.Id, s.Timestamp.UtcTicks, s.Status.Key(), s.Evaluation.FoulingResistance, s.FoulingResistanceSigma, s.Evaluation.UActual, s.Evaluation.UClean, s.Evaluation.LostDuty))));
+        store.SaveAnalysis(clock.GetUtcNow(), summary, result.Exchangers.SelectMany(x =>
+        {
+            var c = x.History.Columns;
+            return Enumerable.Range(0, c.Count).Select(k => (x.History.Exchanger.Id, c.Timestamp(k).UtcTicks, c.Status[k].Key(),
+                c.FoulingResistance[k], c.Sigma[k], c.UActual[k], c.UClean[k], c.LostDuty[k]));
+        }));
         log.LogInformation("Analysed {Exchangers} exchangers over {Intervals} intervals; report at {Report}", result.Exchangers.Count, aligned.IntervalCount, Path.Combine(settings.Out, "report.html"));
         UpdateAlerts(Conditions(result), ["limit", "rate-jump", "sensor-fault", "balance", "instrument-drift", "pressure-drop-tube", "pressure-drop-shell"]);
         return result;
@@ -248,9 +252,9 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
             if (x.History.SensorCheck.LikelyFault) list.Add((id, "sensor-fault", x.History.SensorCheck.Statement));
             if (x.History.Drift is { } drift) list.Add((id, "instrument-drift", drift.Statement));
             foreach (var dp in x.PressureDrops.Where(p => p.Change > 0.15)) list.Add((id, $"pressure-drop-{dp.Side}", dp.Statement));
-            var last = x.History.Samples.Where(s => s.Status != SampleStatus.Missing).TakeLast(144).ToList();
-            if (last.Count >= 36 && last.Count(s => s.Status == SampleStatus.Balance) * 2 > last.Count)
-                list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s.Status == SampleStatus.Balance)} of the last {last.Count} samples")));
+            var last = x.History.Columns.Status.Where(s => s != SampleStatus.Missing).TakeLast(144).ToList();
+            if (last.Count >= 36 && last.Count(s => s == SampleStatus.Balance) * 2 > last.Count)
+                list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s == SampleStatus.Balance)} of the last {last.Count} samples")));
         }
         return list;
     }

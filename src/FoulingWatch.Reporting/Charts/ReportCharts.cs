@@ -180,12 +180,14 @@ public static class ReportCharts
         }
     }
 
-    private static (double[] X, double[] Y) DailyMedian(ExchangerResult x, Func<SampleEvaluation, double> f, double scale)
+    private static (double[] X, double[] Y) DailyMedian(ExchangerResult x, Func<SampleColumns, double[]> pick, double scale)
     {
-        var groups = x.History.Samples.Where(s => s.Status == SampleStatus.Ok && double.IsFinite(f(s.Evaluation)))
-            .GroupBy(s => s.Timestamp.UtcDateTime.Date).OrderBy(g => g.Key).ToList();
+        var c = x.History.Columns;
+        var column = pick(c);
+        var groups = Enumerable.Range(0, c.Count).Where(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k]))
+            .GroupBy(k => c.Timestamp(k).UtcDateTime.Date).OrderBy(g => g.Key).ToList();
         return (groups.Select(g => g.Key.AddHours(12).ToOADate()).ToArray(),
-            groups.Select(g => DailyFouling.Median(g.Select(s => f(s.Evaluation) * scale).Order().ToArray())).ToArray());
+            groups.Select(g => DailyFouling.Median(g.Select(k => column[k] * scale).Order().ToArray())).ToArray());
     }
 
     private static void Line(Plot plot, double[] xs, double[] ys, Color color, string legend, bool dashed = false)
@@ -200,8 +202,8 @@ public static class ReportCharts
     public static Chart UChart(ExchangerResult x)
     {
         var plot = NewPlot($"{x.History.Exchanger.Id}: actual and clean U at today's flows", "U (W/m²·K)");
-        var (xa, ya) = DailyMedian(x, e => e.UActual, 1);
-        var (xc, yc) = DailyMedian(x, e => e.UClean, 1);
+        var (xa, ya) = DailyMedian(x, c => c.UActual, 1);
+        var (xc, yc) = DailyMedian(x, c => c.UClean, 1);
         Line(plot, xa, ya, Blue, "U actual (daily median)");
         Line(plot, xc, yc, Green, "U clean at the same flows", dashed: true);
         plot.ShowLegend(Alignment.LowerLeft);
@@ -211,8 +213,8 @@ public static class ReportCharts
     public static Chart DutyChart(ExchangerResult x)
     {
         var plot = NewPlot($"{x.History.Exchanger.Id}: duty and lost duty", "duty (kW)");
-        var (xd, yd) = DailyMedian(x, e => e.Duty, 1e-3);
-        var (xl, yl) = DailyMedian(x, e => e.LostDuty, 1e-3);
+        var (xd, yd) = DailyMedian(x, c => c.Duty, 1e-3);
+        var (xl, yl) = DailyMedian(x, c => c.LostDuty, 1e-3);
         Line(plot, xd, yd, Blue, "duty (daily median)");
         Line(plot, xl, yl, Vermillion, "lost duty against clean");
         plot.ShowLegend(Alignment.UpperLeft);
@@ -225,14 +227,15 @@ public static class ReportCharts
         var plot = NewPlot($"{x.History.Exchanger.Id}: cumulative cost of fouling", $"cost ({currency} × 1000)");
         if (x.Economics.Pricing is { } p)
         {
-            var lost = FoulingEconomics.LostEnergyPerInterval(x.History, x.History.Samples.Count > 1 ? x.History.Samples[1].Timestamp - x.History.Samples[0].Timestamp : TimeSpan.FromMinutes(10));
+            var c = x.History.Columns;
+            var lost = FoulingEconomics.LostEnergyPerInterval(x.History, c.Count > 1 ? c.Timestamp(1) - c.Timestamp(0) : TimeSpan.FromMinutes(10));
             var xs = new List<double>();
             var ys = new List<double>();
             var sum = 0.0;
             for (var k = 0; k < lost.Length; k++)
             {
                 sum += lost[k] * p.MoneyPerJoule;
-                if (k % 36 == 0 || k == lost.Length - 1) { xs.Add(X(x.History.Samples[k].Timestamp)); ys.Add(sum / 1000); }
+                if (k % 36 == 0 || k == lost.Length - 1) { xs.Add(X(c.Timestamp(k))); ys.Add(sum / 1000); }
             }
             var line = plot.Add.ScatterLine(xs.ToArray(), ys.ToArray());
             line.Color = Purple;

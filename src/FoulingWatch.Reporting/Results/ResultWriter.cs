@@ -29,7 +29,8 @@ public static class ResultWriter
         {
             Parallel.ForEach(result.Exchangers, x =>
                 TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
-                    x.History.Samples.Select(smp => smp.Status == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(smp.Timestamp) : double.NaN).ToList(),
+                    Enumerable.Range(0, x.History.Columns.Count).Select(k => x.History.Columns.Status[k] == Analysis.BackCalculation.SampleStatus.Ok
+                        ? x.Trend.Fitted(x.History.Columns.Timestamp(k)) : double.NaN).ToList(),
                     x.Economics.Pricing?.MoneyPerJoule, x.PressureDrops));
         });
         StageClock.Time("write summary and plan", () =>
@@ -167,7 +168,7 @@ public static class ResultWriter
             economics = Economics(x.Economics, r.Configuration.Site.TimeZone),
             samples = new
             {
-                analysed = x.History.Samples.Count,
+                analysed = x.History.Columns.Count,
                 by_status = x.StatusCounts,
                 no_usable_interval = PlantAnalysis.NoUsableIntervals(x.StatusCounts),
             },

@@ -35,27 +35,26 @@ public static class TimeSeriesWriter
             var row = new CsvRowWriter(stream);
             row.Text(string.Join(',', ContractColumns.Concat(ExtraColumns)));
             row.End();
-            var none = Enumerable.Repeat(double.NaN, Measurement.Count).ToArray();
-            for (var k = 0; k < history.Samples.Count; k++)
+            var c = history.Columns;
+            for (var k = 0; k < c.Count; k++)
             {
-                var s = history.Samples[k];
-                var e = s.Evaluation;
-                var m = e.Measurements.Length == Measurement.Count ? e.Measurements : none;
-                row.Text(NumberText.Utc(s.Timestamp));
-                row.Text(s.Status.Key());
-                foreach (var v in (ReadOnlySpan<double>)[e.Duty, e.DutyHot, e.DutyCold, e.UActual, e.UClean, e.FoulingResistance,
-                             s.FoulingResistanceSigma, e.Cleanliness, e.LostDuty, s.SigmaSystematic, s.SigmaRandom,
-                             fitted is null ? double.NaN : fitted[k], e.BalanceMismatch, e.Lmtd, e.CorrectionFactor, e.DutyClean,
-                             e.HotOutletClean, e.ColdOutletClean])
+                row.Text(NumberText.Utc(c.Timestamp(k)));
+                row.Text(c.Status[k].Key());
+                foreach (var v in (ReadOnlySpan<double>)[c.Duty[k], c.DutyHot[k], c.DutyCold[k], c.UActual[k], c.UClean[k],
+                             c.FoulingResistance[k], c.Sigma[k], c.Cleanliness[k], c.LostDuty[k], c.SigmaSystematic[k],
+                             c.SigmaRandom[k], fitted is null ? double.NaN : fitted[k], c.BalanceMismatch[k], c.Lmtd[k],
+                             c.CorrectionFactor[k], c.DutyClean[k], c.HotOutletClean[k], c.ColdOutletClean[k]])
                     row.Number(v);
-                foreach (var v in m) row.Number(v);
-                row.Number(moneyPerJoule is { } price && s.Status == SampleStatus.Ok ? Math.Max(0, e.LostDuty) * 86400 * price : double.NaN);
-                row.Number(e.Reconciliation?.GlobalTest ?? double.NaN);
-                row.Text(e.Reconciliation is null ? "" : e.Reconciliation.GrossError ? "1" : "0");
-                foreach (var v in e.Reconciliation?.NormalisedAdjustments ?? none) row.Number(v);
+                for (var i = 0; i < Measurement.Count; i++) row.Number(c.Measured[i][k]);
+                row.Number(moneyPerJoule is { } price && c.Status[k] == SampleStatus.Ok
+                    ? Math.Max(0, c.LostDuty[k]) * 86400 * price : double.NaN);
+                var reconciled = c.Reconciled[k] != 0;
+                row.Number(reconciled ? c.GlobalTest[k] : double.NaN);
+                row.Text(reconciled ? c.Reconciled[k] == 2 ? "1" : "0" : "");
+                for (var i = 0; i < Measurement.Count; i++) row.Number(reconciled ? c.NormalisedAdjustments[i][k] : double.NaN);
                 row.Number(k < tubeRatio.Length ? tubeRatio[k] : double.NaN);
                 row.Number(k < shellRatio.Length ? shellRatio[k] : double.NaN);
-                row.Text(Quote(e.Detail));
+                row.Text(Quote(c.Detail[k]));
                 row.End();
             }
             row.Flush();
