@@ -42,6 +42,9 @@ public sealed record ExchangerHistory(ExchangerConfiguration Exchanger, SampleCo
         SensorCheck sensorCheck, string? refusal, BalanceDrift? drift = null)
         : this(exchanger, SampleColumns.From(samples), cleanReference, sensorCheck, refusal, drift) { }
 
+    /// <summary>The clean-U reference the samples were completed with (null when none could be found).</summary>
+    public ICleanUModel? CleanModel { get; init; }
+
     /// <summary>The samples as records, built one at a time on access; the columns are the cheaper way through many.</summary>
     public IReadOnlyList<SampleResult> Samples => Columns.AsResults();
 }
@@ -131,7 +134,7 @@ public static class BackCalculator
             var (sys, rnd) = (c.SigmaSystematic[k], random[k]);
             c.SetSigma(k, double.IsFinite(rnd) ? Math.Sqrt(sys * sys + rnd * rnd) : sys, sys, rnd);
         }
-        return new ExchangerHistory(x, c, cleanReport, SensorCheckOf(x, data, c, evaluator), null, drift);
+        return new ExchangerHistory(x, c, cleanReport, SensorCheckOf(x, data, c, evaluator), null, drift) { CleanModel = clean };
     }
 
     /// <summary>Samples from the drift onset that would otherwise be judged (ok, balance, unsteady) get the status drift.</summary>
