@@ -28,15 +28,25 @@ public sealed record PlantResult(PlantConfiguration Configuration, IngestResult 
 /// <summary>Runs the pipeline on a plant: ingest, then per exchanger back-calculation.</summary>
 public static class PlantAnalysis
 {
-    public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null)
+    /// <param name="finished">Called with each exchanger's result as soon as it is complete (from a worker thread); what
+    /// it returns is kept in the plant result. A run that writes each exchanger's files there and returns the result with
+    /// its samples released (<see cref="ReleaseSamples"/>) holds one or two exchangers' samples at a time, not the fleet's.</param>
+    public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null,
+        Func<ExchangerResult, ExchangerResult>? finished = null)
     {
         var ingest = StageClock.Time("ingest", () => HistorianIngest.Run(config,
             progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction)))));
-        return Run(config, ingest, progress);
+        return Run(config, ingest, progress, finished);
     }
 
+    /// <summary>The result with its per-sample columns released but for the status and lost duty (see
+    /// <see cref="SampleColumns.Released"/>).</summary>
+    public static ExchangerResult ReleaseSamples(ExchangerResult x) =>
+        x with { History = x.History with { Columns = x.History.Columns.Released() } };
+
     /// <summary>Runs the analysis on data already ingested and aligned.</summary>
-    public static PlantResult Run(PlantConfiguration config, IngestResult ingest, IProgress<(string Stage, double Fraction)>? progress = null)
+    public static PlantResult Run(PlantConfiguration config, IngestResult ingest, IProgress<(string Stage, double Fraction)>? progress = null,
+        Func<ExchangerResult, ExchangerResult>? finished = null)
     {
         // Exchangers are independent (each seeds its own draws from its id): they run side by side, results in
         // configuration order, so a run is identical whatever the number of cores.
@@ -51,11 +61,12 @@ public static class PlantAnalysis
             var current = Current(history);
             var trend = StageClock.Time("trends", () => TrendAnalysis.Run(history, config.ShutdownWindows, config.Site.TimeZone));
             var economics = StageClock.Time("economics", () => FoulingEconomics.Run(history, trend, config, current));
-            results[i] = new ExchangerResult(history, current, StatusCounts(history), trend, economics)
+            var result = new ExchangerResult(history, current, StatusCounts(history), trend, economics)
             {
                 PressureDrops = PressureDropTrend.Evaluate(x, ingest, history.Columns, config.Site.TimeZone),
                 WhatIf = WhatIf.Rate(x, history.Columns),
             };
+            results[i] = finished is null ? result : finished(result);
             progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
         });
         var plan = StageClock.Time("plan", () => FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(),

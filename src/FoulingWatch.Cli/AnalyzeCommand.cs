@@ -14,11 +14,11 @@ public static class AnalyzeCommand
     {
         var config = PlantConfigurationReader.Load(configPath);
         var progress = ProgressOn(quiet || json, error);
-        var result = PlantAnalysis.Run(config, progress);
+        var (result, written) = Streamed(config, outDirectory, progress);
         if (auditFrom is not null || auditTo is not null)
             result = result with { AuditPeriod = (auditFrom ?? result.Ingest.GridStart, auditTo ?? result.Ingest.IntervalStart(result.Ingest.IntervalCount)) };
         if (progress is not null) error.Write("\r" + new string(' ', 90) + "\r");
-        ResultWriter.Write(result, outDirectory);
+        ResultWriter.Write(result, outDirectory, written);
         if (json)
         {
             output.WriteLine(System.Text.Json.JsonSerializer.Serialize(ResultWriter.Summary(result), ResultWriter.Json));
@@ -59,6 +59,20 @@ public static class AnalyzeCommand
         return FoulingWatchCommand.Success;
     }
 
+    /// <summary>The pipeline with each exchanger's own files (time series, charts) written as soon as it is analysed and its
+    /// samples then released: the run holds one or two exchangers' samples at a time, whatever the size of the fleet.</summary>
+    private static (PlantResult Result, IReadOnlyDictionary<string, IReadOnlyList<Reporting.Charts.Chart>> Written) Streamed(
+        PlantConfiguration config, string outDirectory, IProgress<(string Stage, double Fraction)>? progress)
+    {
+        var written = new System.Collections.Concurrent.ConcurrentDictionary<string, IReadOnlyList<Reporting.Charts.Chart>>();
+        var result = PlantAnalysis.Run(config, progress, x =>
+        {
+            written[x.History.Exchanger.Id] = ResultWriter.WriteExchanger(x, outDirectory);
+            return PlantAnalysis.ReleaseSamples(x);
+        });
+        return (result, written);
+    }
+
     /// <summary>A one-line progress display on an interactive terminal's standard error, or null (quiet, JSON, redirected).</summary>
     internal static IProgress<(string Stage, double Fraction)>? ProgressOn(bool silent, TextWriter error) =>
         silent || Console.IsErrorRedirected || !ReferenceEquals(error, Console.Error) ? null
@@ -69,9 +83,9 @@ public static class AnalyzeCommand
     {
         var config = PlantConfigurationReader.Load(configPath);
         var progress = ProgressOn(quiet || json, error);
-        var result = PlantAnalysis.Run(config, progress);
+        var (result, written) = Streamed(config, outDirectory, progress);
         if (progress is not null) error.Write("\r" + new string(' ', 90) + "\r");
-        ResultWriter.Write(result, outDirectory);
+        ResultWriter.Write(result, outDirectory, written);
         if (json) output.WriteLine(System.Text.Json.JsonSerializer.Serialize(ResultWriter.Plan(result), ResultWriter.Json));
         else if (!quiet)
         {

@@ -104,6 +104,41 @@ public sealed class ColumnResultsTests(ITestOutputHelper output)
         Assert.True(completed > 100_000, $"only {completed} samples completed");
     }
 
+    /// <summary>analyze writes each exchanger's files as soon as it is analysed and then releases its samples; the files
+    /// must be those of writing the whole result at the end, byte for byte (the report but for its run time).</summary>
+    [Fact]
+    public void Streamed_analyze_writes_the_files_of_the_whole_result_written_at_once()
+    {
+        using var plant = new SamplePlantCopy();
+        Assert.Equal(0, SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", plant.Out("streamed"), "--quiet").Code);
+        var result = Analysis.PlantAnalysis.Run(PlantConfigurationReader.Load(plant.ConfigPath));
+        Assert.All(result.Exchangers, x => Assert.False(x.History.Columns.IsReleased));
+        Reporting.Results.ResultWriter.Write(result, plant.Out("whole"));
+        var streamed = Files(plant.Out("streamed"));
+        var whole = Files(plant.Out("whole"));
+        Assert.Equal(whole.Keys.Order(), streamed.Keys.Order());
+        Assert.True(whole.Count > 20, $"only {whole.Count} files");
+        foreach (var (name, bytes) in whole)
+        {
+            if (name == "report.html")
+                Assert.Equal(WithoutRunTime(bytes), WithoutRunTime(streamed[name]));
+            else Assert.True(bytes.AsSpan().SequenceEqual(streamed[name]), $"{name} differs");
+        }
+
+        var released = Analysis.PlantAnalysis.ReleaseSamples(result.Exchangers[0]);
+        Assert.True(released.History.Columns.IsReleased);
+        Assert.Equal(result.Exchangers[0].History.Columns.Count, released.History.Columns.Count);
+        Assert.Empty(released.History.Columns.FoulingResistance);
+        Assert.Throws<InvalidOperationException>(() => Reporting.Results.ResultWriter.WriteExchanger(released, plant.Out("x")));
+    }
+
+    private static Dictionary<string, byte[]> Files(string folder) =>
+        Directory.GetFiles(folder, "*", SearchOption.AllDirectories)
+            .ToDictionary(f => Path.GetRelativePath(folder, f), File.ReadAllBytes);
+
+    private static string WithoutRunTime(byte[] html) =>
+        System.Text.RegularExpressions.Regex.Replace(System.Text.Encoding.UTF8.GetString(html), " · run [^·]+·", " · run · ");
+
     private static string Tag(ExchangerConfiguration x, int i) => i switch
     {
         Measurement.HotFlow => x.Hot.Flow.Tag,

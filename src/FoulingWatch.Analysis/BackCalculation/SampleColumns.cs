@@ -75,6 +75,31 @@ public sealed class SampleColumns
 
     private static double[][] Six(Func<double[]> make) => [make(), make(), make(), make(), make(), make()];
 
+    /// <summary>Whether the columns were released after the exchanger's files were written: only the timestamps, the
+    /// status and the lost duty remain (what the summary and the energy audit read); every other column is empty.</summary>
+    public bool IsReleased { get; private init; }
+
+    /// <summary>These columns without all but the status and lost duty (about 9 bytes a sample instead of ~190): for
+    /// a run that wrote the exchanger's time series and charts already and keeps only its summary.</summary>
+    public SampleColumns Released() => new(this, new SampleColumns(0, _start, _interval, null, false));
+
+    private SampleColumns(SampleColumns full, SampleColumns empty)
+    {
+        (_start, _interval, _timestamps, Count, IsReleased) = (full._start, full._interval, full._timestamps, full.Count, true);
+        (Status, LostDuty) = (full.Status, full.LostDuty);
+        Detail = empty.Detail;
+        (DutyHot, DutyCold, Duty, BalanceMismatch, Lmtd, CorrectionFactor) = (empty.DutyHot, empty.DutyCold, empty.Duty,
+            empty.BalanceMismatch, empty.Lmtd, empty.CorrectionFactor);
+        (UActual, HotCapacityRate, ColdCapacityRate, TubeFlow, ShellFlow) = (empty.UActual, empty.HotCapacityRate,
+            empty.ColdCapacityRate, empty.TubeFlow, empty.ShellFlow);
+        (UClean, FoulingResistance, Cleanliness, DutyClean, DutyRated) = (empty.UClean, empty.FoulingResistance,
+            empty.Cleanliness, empty.DutyClean, empty.DutyRated);
+        (HotOutletClean, ColdOutletClean, Sigma, SigmaSystematic, SigmaRandom) = (empty.HotOutletClean, empty.ColdOutletClean,
+            empty.Sigma, empty.SigmaSystematic, empty.SigmaRandom);
+        (Measured, Reconciled, GlobalTest) = (empty.Measured, empty.Reconciled, empty.GlobalTest);
+        (Adjusted, NormalisedAdjustments, Sensitivities) = (empty.Adjusted, empty.NormalisedAdjustments, empty.Sensitivities);
+    }
+
     /// <summary>Columns holding the given samples (any timestamps), as tests and small callers build them.</summary>
     public static SampleColumns From(IReadOnlyList<SampleResult> samples)
     {

@@ -100,6 +100,16 @@ internal sealed class BinAccumulator
         return n;
     }
 
+    /// <summary>Drops every chunk (the accumulator is then empty): once a tag's means are taken its sums need no memory,
+    /// so the run holds about 12 bytes per tag and interval at its peak, not the sums and the means together (20).</summary>
+    public void Release()
+    {
+        _chunks.Clear();
+        _chunks.TrimExcess();
+        (_lastChunkKey, _lastChunk) = (long.MinValue, default);
+        (MinimumBin, MaximumBin) = (long.MaxValue, long.MinValue);
+    }
+
     /// <summary>Mean per interval over [firstBin, firstBin + count); NaN where the interval holds no value.</summary>
     public double[] Means(long firstBin, int count)
     {

@@ -134,6 +134,7 @@ public static partial class HistorianIngest
         var finished = channels.Values.AsParallel().AsOrdered().Select(c =>
         {
             var means = c.Bins.Means(first, count);
+            c.Bins.Release();
             var (withData, bridged, missing) = GapBridge.Bridge(means, maxGapIntervals);
             c.Ledger.IntervalsWithData = withData;
             c.Ledger.IntervalsBridged = bridged;

@@ -22,42 +22,69 @@ public static class ResultWriter
         "a drifting sensor reads as fouling or hides it. Cleaning, isolation and operating changes of pressure equipment follow site procedures, " +
         "local codes and licensed engineering practice.";
 
-    public static void Write(PlantResult result, string outDirectory)
+    /// <param name="written">Charts of the exchangers whose own files <see cref="WriteExchanger"/> wrote already (by
+    /// id); the others are written here.</param>
+    public static void Write(PlantResult result, string outDirectory,
+        IReadOnlyDictionary<string, IReadOnlyList<Charts.Chart>>? written = null)
     {
         Directory.CreateDirectory(outDirectory);
-        StageClock.Time("write time series", () =>
+        var charts = new Dictionary<string, IReadOnlyList<Charts.Chart>>();
+        var drawn = new IReadOnlyList<Charts.Chart>[result.Exchangers.Count];
+        Parallel.For(0, drawn.Length, i =>
         {
-            Parallel.ForEach(result.Exchangers, x =>
-                TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
-                    Enumerable.Range(0, x.History.Columns.Count).Select(k => x.History.Columns.Status[k] == Analysis.BackCalculation.SampleStatus.Ok
-                        ? x.Trend.Fitted(x.History.Columns.Timestamp(k)) : double.NaN).ToList(),
-                    x.Economics.Pricing?.MoneyPerJoule, x.PressureDrops));
+            var x = result.Exchangers[i];
+            drawn[i] = written?.GetValueOrDefault(x.History.Exchanger.Id) ?? WriteExchanger(x, outDirectory);
         });
+        for (var i = 0; i < drawn.Length; i++) charts[result.Exchangers[i].History.Exchanger.Id] = drawn[i];
         StageClock.Time("write summary and plan", () =>
         {
             AtomicFile.WriteAllText(Path.Combine(outDirectory, "summary.json"), JsonSerializer.Serialize(Summary(result), Json) + "\n");
             PlanWriter.Write(Path.Combine(outDirectory, "plan.csv"), result);
         });
-        WriteReport(result, outDirectory);
+        WriteReport(result, outDirectory, charts);
     }
 
-    /// <summary>Charts (PNG and SVG under charts/) and the self-contained report.html.</summary>
-    public static void WriteReport(PlantResult result, string outDirectory)
+    /// <summary>What belongs to one exchanger alone: &lt;id&gt;/timeseries.csv and its charts (PNG and SVG under
+    /// charts/); returns the charts for the report. Needs the exchanger's samples (not released).</summary>
+    public static IReadOnlyList<Charts.Chart> WriteExchanger(ExchangerResult x, string outDirectory)
     {
-        var charts = new Dictionary<string, IReadOnlyList<Charts.Chart>>();
+        if (x.History.Columns.IsReleased)
+            throw new InvalidOperationException($"the samples of {x.History.Exchanger.Id} were released before its files were written");
+        StageClock.Time("write time series", () =>
+        {
+            var c = x.History.Columns;
+            var fitted = new double[c.Count];
+            for (var k = 0; k < c.Count; k++)
+                fitted[k] = c.Status[k] == Analysis.BackCalculation.SampleStatus.Ok ? x.Trend.Fitted(c.Timestamp(k)) : double.NaN;
+            TimeSeriesWriter.Write(Path.Combine(outDirectory, SafeName(x.History.Exchanger.Id), "timeseries.csv"), x.History,
+                fitted, x.Economics.Pricing?.MoneyPerJoule, x.PressureDrops);
+        });
+        return StageClock.Time("charts", () =>
+        {
+            var drawn = Charts.ReportCharts.ForExchanger(x);
+            SaveCharts(drawn, outDirectory);
+            return drawn;
+        });
+    }
+
+    private static void SaveCharts(IEnumerable<Charts.Chart> charts, string outDirectory)
+    {
+        var folder = Path.Combine(outDirectory, "charts");
+        foreach (var c in charts)
+        {
+            AtomicFile.WriteAllBytes(Path.Combine(folder, c.Name + ".png"), c.Png);
+            AtomicFile.WriteAllText(Path.Combine(folder, c.Name + ".svg"), c.Svg);
+        }
+    }
+
+    /// <summary>The site charts and the self-contained report.html, with the exchangers' charts already drawn.</summary>
+    private static void WriteReport(PlantResult result, string outDirectory, Dictionary<string, IReadOnlyList<Charts.Chart>> charts)
+    {
         IReadOnlyList<Charts.Chart> site = [];
         StageClock.Time("charts", () =>
         {
-            var drawn = new IReadOnlyList<Charts.Chart>[result.Exchangers.Count];
-            Parallel.For(0, drawn.Length, i => drawn[i] = Charts.ReportCharts.ForExchanger(result.Exchangers[i]));
-            for (var i = 0; i < drawn.Length; i++) charts[result.Exchangers[i].History.Exchanger.Id] = drawn[i];
             site = [Charts.ReportCharts.CostRanking(result), Charts.ReportCharts.PlanTimeline(result)];
-            var folder = Path.Combine(outDirectory, "charts");
-            Parallel.ForEach(charts.Values.SelectMany(c => c).Concat(site), c =>
-            {
-                AtomicFile.WriteAllBytes(Path.Combine(folder, c.Name + ".png"), c.Png);
-                AtomicFile.WriteAllText(Path.Combine(folder, c.Name + ".svg"), c.Svg);
-            });
+            SaveCharts(site, outDirectory);
         });
         StageClock.Time("report", () =>
             AtomicFile.WriteAllText(Path.Combine(outDirectory, "report.html"), Html.HtmlReport.Build(result, charts, site)));
