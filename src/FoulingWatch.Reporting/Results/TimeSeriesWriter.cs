@@ -107,9 +107,7 @@ internal sealed class CsvRowWriter(Stream stream)
         Separate();
         if (!double.IsFinite(v)) return;
         Room(32);
-        if (!v.TryFormat(_block.AsSpan(_used), out var written, "G9", System.Globalization.CultureInfo.InvariantCulture))
-            throw new InvalidOperationException("a number did not fit its cell buffer");
-        _used += written;
+        _used += NineDigits.Write(v, _block.AsSpan(_used));
     }
 
     public void Text(string text)
