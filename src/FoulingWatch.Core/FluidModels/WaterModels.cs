@@ -11,14 +11,57 @@ public sealed class IapwsWater : ITransportFluid
 
     private static bool IsLiquid(double t, double pMPa) =>
         t <= IapwsIf97.Region1MaximumTemperature &&
-        (pMPa > IapwsIf97.CriticalPressureMPa || t < IapwsIf97.SaturationTemperature(pMPa));
+        (pMPa > IapwsIf97.CriticalPressureMPa || t < Saturation(pMPa));
+
+    // A stream's pressure is fixed, and a back-calculation asks for the same few states again and again (the duty's
+    // inlet and outlet, each probe of the uncertainty propagation moving one temperature, the film properties at the
+    // bulk temperature): the last saturation temperature and the last few states are kept per thread. Pure functions
+    // of (T, p), so the values are the same bits as evaluating afresh.
+    [ThreadStatic] private static double _saturationPressure, _saturationTemperature;
+    [ThreadStatic] private static StateCache? _states;
+
+    private static double Saturation(double pMPa)
+    {
+        if (pMPa == _saturationPressure && pMPa > 0) return _saturationTemperature;
+        var t = IapwsIf97.SaturationTemperature(pMPa);
+        (_saturationPressure, _saturationTemperature) = (pMPa, t);
+        return t;
+    }
 
     private IapwsIf97.State StateAt(Temperature temperature, Pressure pressure)
     {
         FluidModelGuard.Check(this, temperature);
         var t = temperature.Kelvin;
         var p = pressure.Megapascals;
-        return IsLiquid(t, p) ? IapwsIf97.Region1(t, p) : IapwsIf97.Region2(t, p);
+        var cache = _states ??= new StateCache();
+        if (cache.TryGet(t, p, out var state)) return state;
+        state = IsLiquid(t, p) ? IapwsIf97.Region1(t, p) : IapwsIf97.Region2(t, p);
+        cache.Add(t, p, state);
+        return state;
+    }
+
+    /// <summary>The last four states evaluated on a thread, by (T, p), replaced in turn.</summary>
+    private sealed class StateCache
+    {
+        private const int Size = 4;
+        private readonly double[] _t = [double.NaN, double.NaN, double.NaN, double.NaN];
+        private readonly double[] _p = new double[Size];
+        private readonly IapwsIf97.State[] _state = new IapwsIf97.State[Size];
+        private int _next;
+
+        public bool TryGet(double t, double p, out IapwsIf97.State state)
+        {
+            for (var i = 0; i < Size; i++)
+                if (_t[i] == t && _p[i] == p) { state = _state[i]; return true; }
+            state = default;
+            return false;
+        }
+
+        public void Add(double t, double p, IapwsIf97.State state)
+        {
+            (_t[_next], _p[_next], _state[_next]) = (t, p, state);
+            _next = (_next + 1) % Size;
+        }
     }
 
     public double SpecificEnthalpy(Temperature temperature, Pressure pressure) => StateAt(temperature, pressure).SpecificEnthalpy;
