@@ -15,6 +15,9 @@ public static class NineDigits
 {
     private static readonly ulong[] Pow10 = Enumerable.Range(0, 20).Select(i => (ulong)Math.Pow(10, i)).ToArray();
 
+    /// <summary>10^k as doubles for k = −4…9 (index k + 4).</summary>
+    private static readonly double[] Decades = Enumerable.Range(-4, 14).Select(k => double.Parse($"1e{k}", CultureInfo.InvariantCulture)).ToArray();
+
     /// <summary>Writes <paramref name="v"/> (finite) as "G9" would; returns the number of bytes (needs up to 32).</summary>
     public static int Write(double v, Span<byte> target)
     {
@@ -41,8 +44,10 @@ public static class NineDigits
         var m = (ulong)(bits & 0xFFFFFFFFFFFFFL) | (1UL << 52);
         var q = exponent - 1075; // a = m·2^q, q in about [−69, −23] here
         if (q >= 0) return 0;
-        // decimal exponent e with 10^e ≤ a < 10^(e+1); log10 may be off by one at the edges: corrected below
-        var e = (int)Math.Floor(Math.Log10(a));
+        // decimal exponent e with 10^e ≤ a < 10^(e+1), estimated from the binary exponent (log10 2 ≈ 0.30103) and the
+        // table; off by one at most, which the exact comparison below corrects
+        var e = (int)Math.Floor((exponent - 1023) * 0.30102999566398120);
+        if (e + 1 < Decades.Length - 4 && e + 1 >= -4 && a >= Decades[e + 1 + 4]) e++;
         for (var attempt = 0; attempt < 3; attempt++)
         {
             var s = 8 - e; // nine digits: N = round(a·10^s) in [10^8, 10^9)
@@ -64,28 +69,43 @@ public static class NineDigits
         return 0;
     }
 
-    /// <summary>Writes nine digits d₀…d₈ with the decimal point after digit e (e in [−4, 8]), trailing zeros dropped.</summary>
+    /// <summary>Writes nine digits (10^8 ≤ digits &lt; 10^9) with the decimal point after the first e + 1 (e in [−4, 8]),
+    /// trailing zeros of the fraction dropped.</summary>
     private static int Place(ulong digits, int e, Span<byte> target)
     {
-        Span<byte> d = stackalloc byte[9];
-        for (var i = 8; i >= 0; i--) { d[i] = (byte)('0' + digits % 10); digits /= 10; }
-        var last = 8;
-        while (last > 0 && d[last] == '0') last--;
         var n = 0;
         if (e < 0)
         {
             target[n++] = (byte)'0';
             target[n++] = (byte)'.';
             for (var i = -1; i > e; i--) target[n++] = (byte)'0';
-            for (var i = 0; i <= last; i++) target[n++] = d[i];
-            return n;
+            return n + Digits(Trim(digits, out _), target[n..]);
         }
-        for (var i = 0; i <= e; i++) target[n++] = d[i];
-        if (last > e)
-        {
-            target[n++] = (byte)'.';
-            for (var i = e + 1; i <= last; i++) target[n++] = d[i];
-        }
-        return n;
+        var scale = Pow10[8 - e];
+        n = Digits(digits / scale, target);
+        var fraction = digits % scale;
+        if (fraction == 0) return n;
+        target[n++] = (byte)'.';
+        var width = 8 - e;
+        fraction = Trim(fraction, out var dropped);
+        width -= dropped;
+        for (var i = width - 1; i >= 0; i--) { target[n + i] = (byte)('0' + fraction % 10); fraction /= 10; }
+        return n + width;
+    }
+
+    private static ulong Trim(ulong value, out int dropped)
+    {
+        dropped = 0;
+        while (value % 10 == 0) { value /= 10; dropped++; }
+        return value;
+    }
+
+    /// <summary>A positive integer's decimal digits.</summary>
+    private static int Digits(ulong value, Span<byte> target)
+    {
+        var count = 1;
+        while (count < 20 && value >= Pow10[count]) count++;
+        for (var i = count - 1; i >= 0; i--) { target[i] = (byte)('0' + value % 10); value /= 10; }
+        return count;
     }
 }
