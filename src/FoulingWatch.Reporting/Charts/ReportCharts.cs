@@ -51,7 +51,22 @@ public static class ReportCharts
     {
         plot.Font.Set(FontName);
         HideEmptyLegend(plot);
-        return new(name, title, plot.GetImageBytes(Width, Height, ImageFormat.Png), StableIds(plot.GetSvgXml(Width, Height)), Width, Height);
+        return new(name, title, Png(plot), StableIds(plot.GetSvgXml(Width, Height)), Width, Height);
+    }
+
+    /// <summary>The chart as PNG: drawn as the plotting library draws it (the same pixels as its own PNG export),
+    /// compressed at zlib level 1 rather than the default 6: 82 charts of the benchmark plant 1.70 -> 1.29 s, files about
+    /// 10 % larger.</summary>
+    public static byte[] Png(Plot plot, int width = Width, int height = Height)
+    {
+        using var surface = SkiaSharp.SKSurface.Create(new SkiaSharp.SKImageInfo(width, height, SkiaSharp.SKColorType.Rgba8888,
+            SkiaSharp.SKAlphaType.Premul)) ?? throw new InvalidOperationException("no drawing surface for the chart");
+        plot.Render(surface.Canvas, width, height);
+        using var image = surface.Snapshot();
+        using var pixels = image.PeekPixels();
+        using var data = pixels.Encode(new SkiaSharp.SKPngEncoderOptions(SkiaSharp.SKPngEncoderFilterFlags.AllFilters, 1))
+            ?? throw new InvalidOperationException("the chart could not be encoded as PNG");
+        return data.ToArray();
     }
 
     /// <summary>A legend lists only what is drawn: nothing drawn with a label, no legend.</summary>
