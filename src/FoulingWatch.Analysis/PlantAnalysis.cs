@@ -129,7 +129,7 @@ public static class PlantAnalysis
         day.Reverse();
         double Median(double[] column)
         {
-            var v = day.Select(k => column[k]).Where(double.IsFinite).Order().ToArray();
+            var v = day.Select(k => column[k]).Where(double.IsFinite).Sorted();
             return v.Length == 0 ? double.NaN : v.Length % 2 == 1 ? v[v.Length / 2] : 0.5 * (v[v.Length / 2 - 1] + v[v.Length / 2]);
         }
         return new CurrentState(last, day.Count, Median(c.UActual), Median(c.UClean), Median(c.FoulingResistance),

@@ -72,9 +72,14 @@ public static class BackCalculator
         var tags = new[] { x.Hot.Flow, x.Hot.Inlet, x.Hot.Outlet, x.Cold.Flow, x.Cold.Inlet, x.Cold.Outlet };
         var c = new SampleColumns(n, data.GridStart, data.Interval, series, x.DutyBasis == DutyBasis.Reconciled);
         var frozenDetail = tags.Select(t => $"{t.Tag} held one value for at least {settings.FrozenAfter.TotalHours:0.#} h").ToArray();
-        Parallel.For(0, n, k =>
+        // Each worker reads its samples into one buffer of its own: the evaluation record is stored in the columns at once.
+        Parallel.For(0, n, () => new double[Measurement.Count], (k, _, m) =>
         {
-            var m = new double[Measurement.Count];
+            Evaluate(k, m);
+            return m;
+        }, _ => { });
+        void Evaluate(int k, double[] m)
+        {
             for (var i = 0; i < m.Length; i++) m[i] = series[i][k];
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
@@ -96,7 +101,7 @@ public static class BackCalculator
             if (e.Status == SampleStatus.Ok && !IsSteady(series, k, window, settings))
                 e = e with { Status = SampleStatus.Unsteady };
             c.Set(k, e);
-        });
+        }
 
         var drift = BalanceDriftDetector.Detect(data, c, evaluator, tags.Select(t => t.Tag).ToArray(), zone);
         if (drift is not null) MarkDrift(data, c, drift, zone ?? TimeZoneInfo.Utc);
@@ -111,23 +116,35 @@ public static class BackCalculator
                 $"no clean-U reference: {cleanReport.Refusal}", drift);
         }
 
-        Parallel.For(0, n, k =>
+        // Clean-U values straight into the columns, from two buffers per worker: no record per sample.
+        Parallel.For(0, n, () => (Used: new double[Measurement.Count], Measured: new double[Measurement.Count]), (k, _, buffers) =>
         {
-            if (!(c.UActual[k] > 0)) return;
-            var used = c.Used(k);
-            var e = evaluator.Complete(c.Evaluation(k), clean, used);
-            if (e.Status == SampleStatus.Ok && e.Cleanliness > SampleStatusText.MaxCleanliness)
-                e = e with { Status = SampleStatus.Implausible, Detail = FormattableString.Invariant(
-                    $"U = {e.UActual:0} W/m2K is {e.Cleanliness:0.0} times the clean U; check flow units and scales, the area and the clean reference") };
-            c.Set(k, e);
-            if (e.Status != SampleStatus.Ok) return;
+            Complete(k, buffers.Used, buffers.Measured);
+            return buffers;
+        }, _ => { });
+        void Complete(int k, double[] used, double[] measured)
+        {
+            var u = c.UActual[k];
+            if (!(u > 0)) return;
+            c.UsedInto(k, used);
+            if (evaluator.CleanValues(u, c.TubeFlow[k], c.ShellFlow[k], c.HotCapacityRate[k], c.ColdCapacityRate[k], used, clean)
+                is not { } v)
+            {
+                (c.Status[k], c.Detail[k]) = (SampleStatus.PropertyRange, SampleEvaluator.CleanUUndefined);
+                return;
+            }
+            c.SetClean(k, v);
+            if (c.Status[k] == SampleStatus.Ok && v.Cleanliness > SampleStatusText.MaxCleanliness)
+                (c.Status[k], c.Detail[k]) = (SampleStatus.Implausible, FormattableString.Invariant(
+                    $"U = {u:0} W/m2K is {v.Cleanliness:0.0} times the clean U; check flow units and scales, the area and the clean reference"));
+            if (c.Status[k] != SampleStatus.Ok) return;
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
-            var instruments = evaluator.FoulingResistanceSigma(e.Measurements, pHot, pCold, clean);
+            var instruments = evaluator.FoulingResistanceSigma(c.MeasurementsInto(k, measured), pHot, pCold, clean);
             var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(used);
-            var reference = clean.InverseSigma(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
+            var reference = clean.InverseSigma(c.TubeFlow[k], c.ShellFlow[k], tubeBulk, shellBulk);
             c.SigmaSystematic[k] = Math.Sqrt(instruments * instruments + reference * reference);
-        });
+        }
         var random = RandomPart.PerSample(data, c);
         for (var k = 0; k < n; k++)
         {
@@ -178,7 +195,7 @@ public static class BackCalculator
 
     private static double Percentile(double[] values, double p)
     {
-        var v = values.Where(d => !double.IsNaN(d)).Order().ToArray();
+        var v = values.Where(d => !double.IsNaN(d)).Sorted();
         return v.Length == 0 ? double.NaN : v[(int)Math.Clamp(Math.Round(p * (v.Length - 1)), 0, v.Length - 1)];
     }
 

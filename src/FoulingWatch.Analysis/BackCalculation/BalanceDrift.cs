@@ -38,14 +38,14 @@ public static class BalanceDriftDetector
         var (days, values) = DailyMismatch(data, evaluations);
         if (values.Length < MinimumDays) return null;
         var reference = Math.Clamp(values.Length / 4, 14, ReferenceDays);
-        var refValues = values[..reference].Order().ToArray();
+        var refValues = values[..reference].Sorted();
         var mu = Median(refValues);
-        var sigma = Math.Max(MinimumSigma, 1.4826 * Median(refValues.Select(v => Math.Abs(v - mu)).Order().ToArray()));
+        var sigma = Math.Max(MinimumSigma, 1.4826 * Median(refValues.Select(v => Math.Abs(v - mu)).Sorted()));
         var widen = Math.Sqrt(WilsonPlot.SerialInflation(values[..reference].Select(v => v - mu).ToArray()));
         var alarm = TabularCusum.FirstAlarm(values, mu, 0.5 * sigma * widen, 5 * sigma * widen);
         if (!alarm.Found) return null;
         var (onset, form, level, rate) = ChangePoint(days, values, MinimumDaysBefore);
-        var shift = form == "ramp" ? Median(values[^Math.Min(7, values.Length - onset)..].Order().ToArray()) - level : rate;
+        var shift = form == "ramp" ? Median(values[^Math.Min(7, values.Length - onset)..].Sorted()) - level : rate;
         if (Math.Abs(shift) < MinimumShift) return null;
         var onsetTime = data.GridStart.AddDays(days[onset]);
         var alarmTime = data.GridStart.AddDays(days[alarm.AlarmIndex]);

@@ -54,7 +54,7 @@ public static class CycleBaselines
         double Median(double[] column)
         {
             var v = Enumerable.Range(0, evaluations.Count).Where(k => evaluations.Status[k] == SampleStatus.Ok).Select(k => column[k])
-                .Where(double.IsFinite).Order().ToArray();
+                .Where(double.IsFinite).Sorted();
             return v.Length == 0 ? double.NaN : v[v.Length / 2];
         }
         return (x.Tube.DesignFlow ?? Median(evaluations.TubeFlow), x.Shell.DesignFlow ?? Median(evaluations.ShellFlow));

@@ -203,7 +203,7 @@ public static class PressureDropTrend
 
     private static double Median(IEnumerable<double> values)
     {
-        var v = values.Order().ToArray();
+        var v = values.Sorted();
         return v.Length % 2 == 1 ? v[v.Length / 2] : 0.5 * (v[v.Length / 2 - 1] + v[v.Length / 2]);
     }
 }

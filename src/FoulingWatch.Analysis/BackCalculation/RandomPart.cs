@@ -28,7 +28,7 @@ public static class RandomPart
             while (k < n && data.IntervalStart(k).UtcDateTime.Date == day) k++;
             days.Add((from, k, Spread(evaluations, from, k)));
         }
-        var spreads = days.Select(d => d.Spread).Where(double.IsFinite).Order().ToArray();
+        var spreads = days.Select(d => d.Spread).Where(double.IsFinite).Sorted();
         var fallback = spreads.Length == 0 ? double.NaN : spreads[spreads.Length / 2];
         foreach (var (from, to, spread) in days)
         {
@@ -46,9 +46,9 @@ public static class RandomPart
             if (evaluations.UsableRf(i))
                 values.Add(evaluations.FoulingResistance[i]);
         if (values.Count < MinimumSamples) return double.NaN;
-        var sorted = values.Order().ToArray();
+        var sorted = values.Sorted();
         var median = Median(sorted);
-        return 1.4826 * Median(values.Select(v => Math.Abs(v - median)).Order().ToArray());
+        return 1.4826 * Median(values.Select(v => Math.Abs(v - median)).Sorted());
     }
 
     public static double Median(double[] sorted) =>

@@ -142,23 +142,34 @@ public sealed class SampleColumns
         }
     }
 
+    /// <summary>Stores the clean-U dependent values of sample k.</summary>
+    public void SetClean(int k, in CleanValues v)
+    {
+        (UClean[k], FoulingResistance[k], Cleanliness[k], DutyClean[k]) = (v.UClean, v.FoulingResistance, v.Cleanliness, v.DutyClean);
+        (DutyRated[k], LostDuty[k], HotOutletClean[k], ColdOutletClean[k]) = (v.DutyRated, v.LostDuty, v.HotOutletClean, v.ColdOutletClean);
+    }
+
     public void SetSigma(int k, double combined, double systematic, double random) =>
         (Sigma[k], SigmaSystematic[k], SigmaRandom[k]) = (combined, systematic, random);
 
     /// <summary>Sample k's six measurements, in a new array.</summary>
-    public double[] Measurements(int k)
+    public double[] Measurements(int k) => MeasurementsInto(k, new double[Measurement.Count]);
+
+    /// <summary>Sample k's six measurements into <paramref name="m"/> (returned).</summary>
+    public double[] MeasurementsInto(int k, double[] m)
     {
-        var m = new double[Measurement.Count];
-        for (var i = 0; i < m.Length; i++) m[i] = Measured[i][k];
+        for (var i = 0; i < Measurement.Count; i++) m[i] = Measured[i][k];
         return m;
     }
 
     /// <summary>The measurements the sample was evaluated on: reconciled where it was reconciled, else as measured.</summary>
-    public double[] Used(int k)
+    public double[] Used(int k) => UsedInto(k, new double[Measurement.Count]);
+
+    /// <summary><see cref="Used"/> into <paramref name="m"/> (returned).</summary>
+    public double[] UsedInto(int k, double[] m)
     {
-        if (Reconciled[k] == 0) return Measurements(k);
-        var m = new double[Measurement.Count];
-        for (var i = 0; i < m.Length; i++) m[i] = Adjusted[i][k];
+        var source = Reconciled[k] == 0 ? Measured : Adjusted;
+        for (var i = 0; i < Measurement.Count; i++) m[i] = source[i][k];
         return m;
     }
 

@@ -181,31 +181,45 @@ public sealed class SampleEvaluator
         return _x.Hot.Side == ExchangerSide.Tube ? (hot, cold) : (cold, hot);
     }
 
+    /// <summary>Why a sample has no clean U (its status becomes property-range).</summary>
+    public const string CleanUUndefined =
+        "the clean U is undefined at these flows and temperatures (a Reynolds or Prandtl number outside the film correlations' ranges)";
+
     /// <summary>Adds clean U, Rf = 1/U − 1/U_clean, cleanliness and lost duty (ε-NTU at U_clean and at U, today's inlets and capacity rates).</summary>
     public SampleEvaluation Complete(SampleEvaluation e, ICleanUModel clean, double[] used)
     {
         if (!(e.UActual > 0)) return e;
+        if (CleanValues(e.UActual, e.TubeFlow, e.ShellFlow, e.HotCapacityRate, e.ColdCapacityRate, used, clean) is not { } v)
+            return e with { Status = SampleStatus.PropertyRange, Detail = CleanUUndefined };
+        return e with
+        {
+            UClean = v.UClean,
+            FoulingResistance = v.FoulingResistance,
+            Cleanliness = v.Cleanliness,
+            DutyClean = v.DutyClean,
+            DutyRated = v.DutyRated,
+            LostDuty = v.LostDuty,
+            HotOutletClean = v.HotOutletClean,
+            ColdOutletClean = v.ColdOutletClean,
+        };
+    }
+
+    /// <summary>The clean-U dependent values of a sample with actual U <paramref name="uActual"/> (&gt; 0) evaluated on
+    /// the measurements <paramref name="used"/>; null when the clean U is undefined there. What <see cref="Complete"/>
+    /// adds, without a record (the back-calculation writes them straight into its columns).</summary>
+    public CleanValues? CleanValues(double uActual, double tubeFlow, double shellFlow, double hotCapacityRate,
+        double coldCapacityRate, double[] used, ICleanUModel clean)
+    {
         var (tubeBulk, shellBulk) = BulkTemperatures(used);
-        var uc = clean.CleanU(e.TubeFlow, e.ShellFlow, tubeBulk, shellBulk);
-        if (!(uc > 0))
-            return e with { Status = SampleStatus.PropertyRange,
-                Detail = "the clean U is undefined at these flows and temperatures (a Reynolds or Prandtl number outside the film correlations' ranges)" };
+        var uc = clean.CleanU(tubeFlow, shellFlow, tubeBulk, shellBulk);
+        if (!(uc > 0)) return null;
         var terminals = TerminalTemperatures(used);
         var thi = T(terminals.HotIn);
         var tci = T(terminals.ColdIn);
-        var ratedClean = Rating.Rate(_x.Arrangement, uc * _x.Area, e.HotCapacityRate, e.ColdCapacityRate, thi, tci);
-        var ratedNow = Rating.Rate(_x.Arrangement, e.UActual * _x.Area, e.HotCapacityRate, e.ColdCapacityRate, thi, tci);
-        return e with
-        {
-            UClean = uc,
-            FoulingResistance = 1 / e.UActual - 1 / uc,
-            Cleanliness = e.UActual / uc,
-            DutyClean = ratedClean.Duty,
-            DutyRated = ratedNow.Duty,
-            LostDuty = ratedClean.Duty - ratedNow.Duty,
-            HotOutletClean = ratedClean.HotOutlet.Kelvin,
-            ColdOutletClean = ratedClean.ColdOutlet.Kelvin,
-        };
+        var ratedClean = Rating.Rate(_x.Arrangement, uc * _x.Area, hotCapacityRate, coldCapacityRate, thi, tci);
+        var ratedNow = Rating.Rate(_x.Arrangement, uActual * _x.Area, hotCapacityRate, coldCapacityRate, thi, tci);
+        return new CleanValues(uc, 1 / uActual - 1 / uc, uActual / uc, ratedClean.Duty, ratedNow.Duty,
+            ratedClean.Duty - ratedNow.Duty, ratedClean.HotOutlet.Kelvin, ratedClean.ColdOutlet.Kelvin);
     }
 
     /// <summary>Rf in m²·K/W of a sample, or NaN when it cannot be evaluated (used for uncertainty propagation).</summary>
@@ -250,6 +264,11 @@ public sealed class SampleEvaluator
         return FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean, memo), m, Sigmas(m));
     }
 }
+
+/// <summary>What the clean U adds to a sample: U_clean, Rf, cleanliness, the duties rated at U_clean and at U and their
+/// difference (lost duty), and the outlets the clean exchanger would reach.</summary>
+public readonly record struct CleanValues(double UClean, double FoulingResistance, double Cleanliness, double DutyClean,
+    double DutyRated, double LostDuty, double HotOutletClean, double ColdOutletClean);
 
 /// <summary>The last enthalpy change of each side of one sample (fixed pressures), with its validity verdict.</summary>
 public sealed class DutyMemo

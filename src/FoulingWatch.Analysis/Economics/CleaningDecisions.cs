@@ -102,8 +102,8 @@ public static class CleaningDecisions
                 avoided += energies[reference, j] - energies[i, j];
             }
             avoided /= n;
-            var sorted = saving.Order().ToArray();
-            var days = specs[i].Kind == "at-limit" ? JointDraws.Quantile(Enumerable.Range(0, n).Select(j => draws.Crossing(j, limit!.Value) - tNow).Order().ToArray(), 0.1) : specs[i].Days;
+            var sorted = saving.Sorted();
+            var days = specs[i].Kind == "at-limit" ? JointDraws.Quantile(Enumerable.Range(0, n).Select(j => draws.Crossing(j, limit!.Value) - tNow).Sorted(), 0.1) : specs[i].Days;
             DateTimeOffset? date = double.IsFinite(days) && days <= horizon ? now + TimeSpan.FromDays(Math.Max(0, days)) : null;
             var rate = double.IsFinite(days) ? central.Rate(tNow + Math.Max(0, days)) : 0;
             options.Add(new DecisionOption(specs[i].Kind, specs[i].Label, specs[i].Window, date, Mean(costs, i), saving.Average(),

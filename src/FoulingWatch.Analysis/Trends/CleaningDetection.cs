@@ -32,17 +32,17 @@ public static class CleaningDetection
         {
             var before = days.Skip(i - Window).Take(Window).ToList();
             var after = days.Skip(i).Take(Window).ToList();
-            var b = DailyFouling.Median(before.Select(d => d.FoulingResistance).Order().ToArray());
-            var a = DailyFouling.Median(after.Select(d => d.FoulingResistance).Order().ToArray());
+            var b = DailyFouling.Median(before.Select(d => d.FoulingResistance).Sorted());
+            var a = DailyFouling.Median(after.Select(d => d.FoulingResistance).Sorted());
             var sb = Math.Sqrt(Math.PI / 2) * Math.Sqrt(before.Average(d => d.Sigma * d.Sigma) / Window);
             var sa = Math.Sqrt(Math.PI / 2) * Math.Sqrt(after.Average(d => d.Sigma * d.Sigma) / Window);
             windows.Add((i, b - a, Math.Sqrt(sa * sa + sb * sb), b, a));
         }
         // The day-to-day wander of a process (serially correlated, larger than the scatter within a day) moves the windowed
         // medians too: the robust spread of all the windowed falls is the empirical null, and cleanings are its outliers.
-        var falls = windows.Select(w => w.Drop).Order().ToArray();
+        var falls = windows.Select(w => w.Drop).Sorted();
         var centre = DailyFouling.Median(falls);
-        var wander = falls.Length == 0 ? 0 : 1.4826 * DailyFouling.Median(falls.Select(f => Math.Abs(f - centre)).Order().ToArray());
+        var wander = falls.Length == 0 ? 0 : 1.4826 * DailyFouling.Median(falls.Select(f => Math.Abs(f - centre)).Sorted());
         var candidates = windows.Select(w => w with { Sigma = Math.Max(w.Sigma, wander) })
             .Where(w => w.Drop > SigmaFactor * w.Sigma && w.Drop > RelativeDrop * Math.Abs(w.Before) && w.Drop > MinimumDrop).ToList();
         var result = new List<Cleaning>();

@@ -30,12 +30,12 @@ public static class DailyFouling
         foreach (var day in Enumerable.Range(0, samples.Count).Where(samples.UsableRf)
                      .GroupBy(k => new DateTimeOffset(samples.Timestamp(k).UtcDateTime.Date, TimeSpan.Zero)).OrderBy(g => g.Key))
         {
-            var v = day.Select(k => samples.FoulingResistance[k]).Order().ToArray();
+            var v = day.Select(k => samples.FoulingResistance[k]).Sorted();
             if (v.Length < MinimumSamples) continue;
             var median = Median(v);
-            var mad = Median(v.Select(x => Math.Abs(x - median)).Order().ToArray()) * 1.4826;
-            var sampleRandom = Median(day.Select(k => RandomSigma(samples, k)).Where(double.IsFinite).Order().ToArray());
-            var systematic = Median(day.Select(k => samples.SigmaSystematic[k]).Where(double.IsFinite).Order().ToArray());
+            var mad = Median(v.Select(x => Math.Abs(x - median)).Sorted()) * 1.4826;
+            var sampleRandom = Median(day.Select(k => RandomSigma(samples, k)).Where(double.IsFinite).Sorted());
+            var systematic = Median(day.Select(k => samples.SigmaSystematic[k]).Where(double.IsFinite).Sorted());
             var s = Math.Max(mad, double.IsFinite(sampleRandom) ? sampleRandom : 0);
             result.Add(new DailyPoint(day.Key, median, Math.Sqrt(Math.PI / 2) * s / Math.Sqrt(v.Length), v.Length,
                 double.IsFinite(systematic) ? systematic : 0));

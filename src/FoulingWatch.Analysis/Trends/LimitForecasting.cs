@@ -56,7 +56,7 @@ public static class LimitForecasting
         var horizon = now + TrendAnalysis.Horizon;
         var tHorizon = cycle.Days(horizon);
         var crossings = Crossings(draws, l);
-        var sorted = crossings.Order().ToArray();
+        var sorted = crossings.Sorted();
         double Fraction(Func<double, bool> f) => crossings.Count(f) / (double)crossings.Length;
         var reachedNow = Fraction(c => c <= tNow);
         var beyond = Fraction(c => c > tHorizon);

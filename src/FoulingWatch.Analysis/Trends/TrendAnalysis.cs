@@ -106,7 +106,7 @@ public static class TrendAnalysis
     /// <summary>Systematic standard uncertainty of the cycle's Rf now: the median over its last 14 usable days.</summary>
     public static double SystematicSigma(FoulingCycle cycle)
     {
-        var v = cycle.Points.TakeLast(14).Select(p => p.SigmaSystematic).Where(double.IsFinite).Order().ToArray();
+        var v = cycle.Points.TakeLast(14).Select(p => p.SigmaSystematic).Where(double.IsFinite).Sorted();
         return v.Length == 0 ? 0 : DailyFouling.Median(v);
     }
 
@@ -167,10 +167,10 @@ public static class TrendAnalysis
         for (var i = 0; i < k; i++)
         for (var j = 0; j < k; j++) variance += g[i] * fit.Covariance[i, j] * g[j];
         var se = Math.Sqrt(Math.Max(0, variance));
-        var systematic = DailyFouling.Median(points.Select(p => p.SigmaSystematic).Order().ToArray());
+        var systematic = DailyFouling.Median(points.Select(p => p.SigmaSystematic).Sorted());
         if (growth > 2 * se && growth > systematic) return null;
         return FormattableString.Invariant(
-            $"no significant fouling: the {model.Key} law grows {growth:0.00e0} ± {se:0.0e0} m2K/W from the cycle start to {SignificanceLookAheadDays:0} days ahead, within twice its standard error or the systematic uncertainty of Rf ({systematic:0.0e0} m2K/W); Rf stays near {DailyFouling.Median(points.Select(p => p.FoulingResistance).Order().ToArray()):0.00e0} m2K/W");
+            $"no significant fouling: the {model.Key} law grows {growth:0.00e0} ± {se:0.0e0} m2K/W from the cycle start to {SignificanceLookAheadDays:0} days ahead, within twice its standard error or the systematic uncertainty of Rf ({systematic:0.0e0} m2K/W); Rf stays near {DailyFouling.Median(points.Select(p => p.FoulingResistance).Sorted()):0.00e0} m2K/W");
     }
 
     private static double T(DateTimeOffset start, DailyPoint p) => (p.Day - start).TotalDays + 0.5;
@@ -205,8 +205,8 @@ public static class TrendAnalysis
 
     private static CleaningEffect Effect(Cleaning c, List<DailyPoint> daily, List<FoulingCycle> cycles)
     {
-        var before = daily.Where(d => d.Day + TimeSpan.FromDays(1) <= (c.OutageStart ?? c.Date)).TakeLast(3).Select(d => d.FoulingResistance).Order().ToArray();
-        var after = daily.Where(d => d.Day + TimeSpan.FromDays(1) > c.Date).Take(3).Select(d => d.FoulingResistance).Order().ToArray();
+        var before = daily.Where(d => d.Day + TimeSpan.FromDays(1) <= (c.OutageStart ?? c.Date)).TakeLast(3).Select(d => d.FoulingResistance).Sorted();
+        var after = daily.Where(d => d.Day + TimeSpan.FromDays(1) > c.Date).Take(3).Select(d => d.FoulingResistance).Sorted();
         double? b = before.Length > 0 ? DailyFouling.Median(before) : null;
         double? a = after.Length > 0 ? DailyFouling.Median(after) : null;
         double? fraction = b is > 0 && a is not null ? (b - a) / b : null;

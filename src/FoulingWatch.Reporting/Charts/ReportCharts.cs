@@ -202,7 +202,7 @@ public static class ReportCharts
         var groups = Enumerable.Range(0, c.Count).Where(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k]))
             .GroupBy(k => c.Timestamp(k).UtcDateTime.Date).OrderBy(g => g.Key).ToList();
         return (groups.Select(g => g.Key.AddHours(12).ToOADate()).ToArray(),
-            groups.Select(g => DailyFouling.Median(g.Select(k => column[k] * scale).Order().ToArray())).ToArray());
+            groups.Select(g => DailyFouling.Median(g.Select(k => column[k] * scale).Sorted())).ToArray());
     }
 
     private static void Line(Plot plot, double[] xs, double[] ys, Color color, string legend, bool dashed = false)
