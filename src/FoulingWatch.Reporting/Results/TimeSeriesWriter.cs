@@ -38,7 +38,7 @@ public static class TimeSeriesWriter
             var c = history.Columns;
             for (var k = 0; k < c.Count; k++)
             {
-                row.Text(NumberText.Utc(c.Timestamp(k)));
+                row.Utc(c.Timestamp(k));
                 row.Text(c.Status[k].Key());
                 foreach (var v in (ReadOnlySpan<double>)[c.Duty[k], c.DutyHot[k], c.DutyCold[k], c.UActual[k], c.UClean[k],
                              c.FoulingResistance[k], c.Sigma[k], c.Cleanliness[k], c.LostDuty[k], c.SigmaSystematic[k],
@@ -108,6 +108,16 @@ internal sealed class CsvRowWriter(Stream stream)
         if (!double.IsFinite(v)) return;
         Room(32);
         _used += NineDigits.Write(v, _block.AsSpan(_used));
+    }
+
+    /// <summary>A UTC timestamp as <see cref="NumberText.Utc"/> writes it, formatted straight into the block.</summary>
+    public void Utc(DateTimeOffset t)
+    {
+        Separate();
+        Room(32);
+        if (!t.UtcDateTime.TryFormat(_block.AsSpan(_used), out var written, "yyyy-MM-ddTHH:mm:ssZ", System.Globalization.CultureInfo.InvariantCulture))
+            throw new InvalidOperationException("a timestamp did not fit its cell buffer");
+        _used += written;
     }
 
     public void Text(string text)
