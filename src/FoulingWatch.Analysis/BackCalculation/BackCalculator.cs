@@ -195,8 +195,8 @@ public static class BackCalculator
 
     private static double Percentile(double[] values, double p)
     {
-        var v = values.Where(d => !double.IsNaN(d)).Sorted();
-        return v.Length == 0 ? double.NaN : v[(int)Math.Clamp(Math.Round(p * (v.Length - 1)), 0, v.Length - 1)];
+        var v = values.Where(d => !double.IsNaN(d)).ToArray();
+        return v.Length == 0 ? double.NaN : Sorting.Select(v, (int)Math.Clamp(Math.Round(p * (v.Length - 1)), 0, v.Length - 1));
     }
 
     private static (ICleanUModel?, CleanReferenceReport) CleanModel(ExchangerConfiguration x, IngestResult data, SampleColumns evaluations, SampleEvaluator evaluator)
