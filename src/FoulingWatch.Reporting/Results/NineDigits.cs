@@ -42,26 +42,23 @@ public static class NineDigits
         var exponent = (int)((bits >> 52) & 0x7FF);
         if (exponent == 0) return 0;
         var m = (ulong)(bits & 0xFFFFFFFFFFFFFL) | (1UL << 52);
-        var q = exponent - 1075; // a = m·2^q, q in about [−69, −23] here
-        if (q >= 0) return 0;
+        var shift = 1075 - exponent; // a = m·2^−shift; shift in about [23, 69] here
+        if (shift <= 0 || shift >= 127) return 0;
         // decimal exponent e with 10^e ≤ a < 10^(e+1), estimated from the binary exponent (log10 2 ≈ 0.30103) and the
         // table; off by one at most, which the exact comparison below corrects
-        var e = (int)Math.Floor((exponent - 1023) * 0.30102999566398120);
+        var e = ((exponent - 1023) * 78913) >> 18; // ⌊E·log10 2⌋ for |E| < 1024
         if (e + 1 < Decades.Length - 4 && e + 1 >= -4 && a >= Decades[e + 1 + 4]) e++;
         for (var attempt = 0; attempt < 3; attempt++)
         {
             var s = 8 - e; // nine digits: N = round(a·10^s) in [10^8, 10^9)
             if (s < 0 || s > 19) return 0;
-            var product = (UInt128)m * Pow10[s];
-            var shift = -q;
-            if (shift >= 127) return 0;
-            var whole = product >> shift;
-            var remainder = product - (whole << shift);
-            var half = (UInt128)1 << (shift - 1);
+            // m·10^s < 2^53·2^64 in 128 bits (hardware multiply), then split at the binary point
+            var high = Math.BigMul(m, Pow10[s], out var low);
+            if (!Split(high, low, shift, out var whole, out var above, out var tie)) return 0;
             if (whole < Pow10[8]) { e--; continue; }
             if (whole >= Pow10[9]) { e++; continue; }
-            var digits = (ulong)whole;
-            if (remainder > half || (remainder == half && (digits & 1) == 1)) digits++; // a tie rounds to even
+            var digits = whole;
+            if (above || (tie && (digits & 1) == 1)) digits++; // a tie rounds to even
             if (digits == Pow10[9]) { digits = Pow10[8]; e++; }
             if (e > 8 || e < -4) return 0; // scientific notation: the runtime's route
             return Place(digits, e, target);
@@ -69,43 +66,64 @@ public static class NineDigits
         return 0;
     }
 
+    /// <summary>The integer part of (high:low)/2^shift (false when it does not fit 64 bits) and whether the remainder is
+    /// above or exactly at one half.</summary>
+    private static bool Split(ulong high, ulong low, int shift, out ulong whole, out bool above, out bool tie)
+    {
+        ulong remHigh, remLow, halfHigh, halfLow;
+        if (shift < 64)
+        {
+            if (high >> shift != 0) { (whole, above, tie) = (0, false, false); return false; }
+            whole = (high << (64 - shift)) | (low >> shift);
+            (remHigh, remLow) = (0, low & ((1UL << shift) - 1));
+            (halfHigh, halfLow) = (0, 1UL << (shift - 1));
+        }
+        else
+        {
+            var up = shift - 64;
+            whole = up == 0 ? high : high >> up;
+            (remHigh, remLow) = (up == 0 ? 0 : high & ((1UL << up) - 1), low);
+            (halfHigh, halfLow) = up == 0 ? (0UL, 1UL << 63) : (1UL << (up - 1), 0UL);
+        }
+        above = remHigh > halfHigh || (remHigh == halfHigh && remLow > halfLow);
+        tie = remHigh == halfHigh && remLow == halfLow;
+        return true;
+    }
+
+    /// <summary>"00" … "99".</summary>
+    private static readonly byte[] Pairs = Enumerable.Range(0, 100).SelectMany(i => new[] { (byte)('0' + i / 10), (byte)('0' + i % 10) }).ToArray();
+
     /// <summary>Writes nine digits (10^8 ≤ digits &lt; 10^9) with the decimal point after the first e + 1 (e in [−4, 8]),
     /// trailing zeros of the fraction dropped.</summary>
     private static int Place(ulong digits, int e, Span<byte> target)
     {
+        // the nine digits as text, two at a time by constant divisions
+        Span<byte> d = stackalloc byte[10];
+        var v = (uint)digits;
+        for (var i = 8; i > 0; i -= 2)
+        {
+            var pair = (int)(v % 100) * 2;
+            v /= 100;
+            d[i] = Pairs[pair + 1];
+            d[i - 1] = Pairs[pair];
+        }
+        d[0] = (byte)('0' + v);
+        var last = 8;
+        while (last > 0 && d[last] == '0' && last > e) last--;
         var n = 0;
         if (e < 0)
         {
             target[n++] = (byte)'0';
             target[n++] = (byte)'.';
             for (var i = -1; i > e; i--) target[n++] = (byte)'0';
-            return n + Digits(Trim(digits, out _), target[n..]);
+            d[..(last + 1)].CopyTo(target[n..]);
+            return n + last + 1;
         }
-        var scale = Pow10[8 - e];
-        n = Digits(digits / scale, target);
-        var fraction = digits % scale;
-        if (fraction == 0) return n;
+        d[..(e + 1)].CopyTo(target);
+        n = e + 1;
+        if (last <= e) return n;
         target[n++] = (byte)'.';
-        var width = 8 - e;
-        fraction = Trim(fraction, out var dropped);
-        width -= dropped;
-        for (var i = width - 1; i >= 0; i--) { target[n + i] = (byte)('0' + fraction % 10); fraction /= 10; }
-        return n + width;
-    }
-
-    private static ulong Trim(ulong value, out int dropped)
-    {
-        dropped = 0;
-        while (value % 10 == 0) { value /= 10; dropped++; }
-        return value;
-    }
-
-    /// <summary>A positive integer's decimal digits.</summary>
-    private static int Digits(ulong value, Span<byte> target)
-    {
-        var count = 1;
-        while (count < 20 && value >= Pow10[count]) count++;
-        for (var i = count - 1; i >= 0; i--) { target[i] = (byte)('0' + value % 10); value /= 10; }
-        return count;
+        d[(e + 1)..(last + 1)].CopyTo(target[n..]);
+        return n + last - e;
     }
 }
