@@ -32,7 +32,9 @@ public sealed class ColumnResultsTests(ITestOutputHelper output)
             var mismatches = new List<string>();
             void Same(string what, int k, double expected, double actual)
             {
-                var equal = double.IsNaN(expected) ? double.IsNaN(actual) : BitConverter.DoubleToInt64Bits(expected) == BitConverter.DoubleToInt64Bits(actual);
+                var equal = double.IsNaN(expected)
+                    ? double.IsNaN(actual)
+                    : BitConverter.DoubleToInt64Bits(expected) == BitConverter.DoubleToInt64Bits(actual);
                 if (!equal && mismatches.Count < 5) mismatches.Add($"{x.Id} k={k} {what}: record {expected:R}, column {actual:R}");
             }
             for (var k = 0; k < c.Count; k++)

@@ -28,7 +28,10 @@ public sealed class NineDigitsTests
         }
         // values as the time series holds them: short decimals, parsed
         for (var i = 0; i < 500_000; i++)
-            Same(double.Parse((random.Next(-100_000, 100_000) / 1000.0).ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture));
+        {
+            var text = (random.Next(-100_000, 100_000) / 1000.0).ToString(CultureInfo.InvariantCulture);
+            Same(double.Parse(text, CultureInfo.InvariantCulture));
+        }
     }
 
     [Fact]

@@ -145,8 +145,9 @@ public sealed class SampleColumns
     /// <summary>Stores the clean-U dependent values of sample k.</summary>
     public void SetClean(int k, in CleanValues v)
     {
-        (UClean[k], FoulingResistance[k], Cleanliness[k], DutyClean[k]) = (v.UClean, v.FoulingResistance, v.Cleanliness, v.DutyClean);
-        (DutyRated[k], LostDuty[k], HotOutletClean[k], ColdOutletClean[k]) = (v.DutyRated, v.LostDuty, v.HotOutletClean, v.ColdOutletClean);
+        (UClean[k], FoulingResistance[k], Cleanliness[k]) = (v.UClean, v.FoulingResistance, v.Cleanliness);
+        (DutyClean[k], DutyRated[k], LostDuty[k]) = (v.DutyClean, v.DutyRated, v.LostDuty);
+        (HotOutletClean[k], ColdOutletClean[k]) = (v.HotOutletClean, v.ColdOutletClean);
     }
 
     public void SetSigma(int k, double combined, double systematic, double random) =>
@@ -182,7 +183,8 @@ public sealed class SampleColumns
             for (var i = 0; i < v.Length; i++) v[i] = columns[i][k];
             return v;
         }
-        return new ReconciliationResult(Row(Adjusted), Row(NormalisedAdjustments), GlobalTest[k], Reconciled[k] == 2, Row(Sensitivities));
+        return new ReconciliationResult(Row(Adjusted), Row(NormalisedAdjustments), GlobalTest[k], Reconciled[k] == 2,
+            Row(Sensitivities));
     }
 
     /// <summary>Sample k as an evaluation record (new arrays; the same values).</summary>
@@ -213,6 +215,35 @@ public sealed class SampleColumns
         return picked.ToArray();
     }
 
+    /// <summary>The samples that <paramref name="include"/> picks, grouped by UTC calendar day, days in order (within a
+    /// day in sample order). One pass when the timestamps run forward, as on the grid; grouped by key otherwise.</summary>
+    public IEnumerable<(DateTime Day, List<int> Samples)> UtcDays(Func<int, bool> include)
+    {
+        var forward = true;
+        for (var k = 1; k < Count && forward; k++) forward = Timestamp(k) >= Timestamp(k - 1);
+        if (!forward)
+        {
+            var groups = Enumerable.Range(0, Count).Where(include).GroupBy(k => Timestamp(k).UtcDateTime.Date);
+            foreach (var g in groups.OrderBy(g => g.Key)) yield return (g.Key, g.ToList());
+            yield break;
+        }
+        List<int>? day = null;
+        var current = DateTime.MinValue;
+        for (var k = 0; k < Count; k++)
+        {
+            if (!include(k)) continue;
+            var date = Timestamp(k).UtcDateTime.Date;
+            if (day is not null && date != current)
+            {
+                yield return (current, day);
+                day = null;
+            }
+            if (day is null) (day, current) = (new List<int>(), date);
+            day.Add(k);
+        }
+        if (day is not null) yield return (current, day);
+    }
+
     /// <summary>Median of a column over the given samples (all values, NaN included, as the records' medians were).</summary>
     public static double MedianAt(double[] column, int[] indexes)
     {
@@ -227,7 +258,8 @@ public sealed class SampleColumns
 
     private sealed class ResultView(SampleColumns c) : IReadOnlyList<SampleResult>
     {
-        public SampleResult this[int index] => (uint)index < (uint)c.Count ? c.Result(index) : throw new ArgumentOutOfRangeException(nameof(index));
+        public SampleResult this[int index] =>
+            (uint)index < (uint)c.Count ? c.Result(index) : throw new ArgumentOutOfRangeException(nameof(index));
         public int Count => c.Count;
 
         public IEnumerator<SampleResult> GetEnumerator()

@@ -27,8 +27,7 @@ public static class DailyFouling
     public static List<DailyPoint> Resample(SampleColumns samples)
     {
         var result = new List<DailyPoint>();
-        foreach (var day in Enumerable.Range(0, samples.Count).Where(samples.UsableRf)
-                     .GroupBy(k => new DateTimeOffset(samples.Timestamp(k).UtcDateTime.Date, TimeSpan.Zero)).OrderBy(g => g.Key))
+        foreach (var (date, day) in samples.UtcDays(samples.UsableRf))
         {
             var v = day.Select(k => samples.FoulingResistance[k]).Sorted();
             if (v.Length < MinimumSamples) continue;
@@ -37,7 +36,8 @@ public static class DailyFouling
             var sampleRandom = Median(day.Select(k => RandomSigma(samples, k)).Where(double.IsFinite).Sorted());
             var systematic = Median(day.Select(k => samples.SigmaSystematic[k]).Where(double.IsFinite).Sorted());
             var s = Math.Max(mad, double.IsFinite(sampleRandom) ? sampleRandom : 0);
-            result.Add(new DailyPoint(day.Key, median, Math.Sqrt(Math.PI / 2) * s / Math.Sqrt(v.Length), v.Length,
+            result.Add(new DailyPoint(new DateTimeOffset(date, TimeSpan.Zero), median, Math.Sqrt(Math.PI / 2) * s / Math.Sqrt(v.Length),
+                v.Length,
                 double.IsFinite(systematic) ? systematic : 0));
         }
         return result;

@@ -254,7 +254,8 @@ public sealed class WatchLoop(PlantConfiguration config, WatchSettings settings,
             foreach (var dp in x.PressureDrops.Where(p => p.Change > 0.15)) list.Add((id, $"pressure-drop-{dp.Side}", dp.Statement));
             var last = x.History.Columns.Status.Where(s => s != SampleStatus.Missing).TakeLast(144).ToList();
             if (last.Count >= 36 && last.Count(s => s == SampleStatus.Balance) * 2 > last.Count)
-                list.Add((id, "balance", FormattableString.Invariant($"hot and cold duties disagree beyond tolerance in {last.Count(s => s == SampleStatus.Balance)} of the last {last.Count} samples")));
+                list.Add((id, "balance", FormattableString.Invariant(
+                    $"hot and cold duties disagree beyond tolerance in {last.Count(s => s == SampleStatus.Balance)} of the last {last.Count} samples")));
         }
         return list;
     }

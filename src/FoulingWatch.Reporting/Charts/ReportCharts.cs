@@ -199,10 +199,9 @@ public static class ReportCharts
     {
         var c = x.History.Columns;
         var column = pick(c);
-        var groups = Enumerable.Range(0, c.Count).Where(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k]))
-            .GroupBy(k => c.Timestamp(k).UtcDateTime.Date).OrderBy(g => g.Key).ToList();
-        return (groups.Select(g => g.Key.AddHours(12).ToOADate()).ToArray(),
-            groups.Select(g => DailyFouling.Median(g.Select(k => column[k] * scale).Sorted())).ToArray());
+        var groups = c.UtcDays(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k])).ToList();
+        return (groups.Select(g => g.Day.AddHours(12).ToOADate()).ToArray(),
+            groups.Select(g => DailyFouling.Median(g.Samples.Select(k => column[k] * scale).Sorted())).ToArray());
     }
 
     private static void Line(Plot plot, double[] xs, double[] ys, Color color, string legend, bool dashed = false)

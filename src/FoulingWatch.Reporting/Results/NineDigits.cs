@@ -16,7 +16,8 @@ public static class NineDigits
     private static readonly ulong[] Pow10 = Enumerable.Range(0, 20).Select(i => (ulong)Math.Pow(10, i)).ToArray();
 
     /// <summary>10^k as doubles for k = −4…9 (index k + 4).</summary>
-    private static readonly double[] Decades = Enumerable.Range(-4, 14).Select(k => double.Parse($"1e{k}", CultureInfo.InvariantCulture)).ToArray();
+    private static readonly double[] Decades =
+        Enumerable.Range(-4, 14).Select(k => double.Parse($"1e{k}", CultureInfo.InvariantCulture)).ToArray();
 
     /// <summary>Writes <paramref name="v"/> (finite) as "G9" would; returns the number of bytes (needs up to 32).</summary>
     public static int Write(double v, Span<byte> target)
@@ -91,7 +92,8 @@ public static class NineDigits
     }
 
     /// <summary>"00" … "99".</summary>
-    private static readonly byte[] Pairs = Enumerable.Range(0, 100).SelectMany(i => new[] { (byte)('0' + i / 10), (byte)('0' + i % 10) }).ToArray();
+    private static readonly byte[] Pairs =
+        Enumerable.Range(0, 100).SelectMany(i => new[] { (byte)('0' + i / 10), (byte)('0' + i % 10) }).ToArray();
 
     /// <summary>Writes nine digits (10^8 ≤ digits &lt; 10^9) with the decimal point after the first e + 1 (e in [−4, 8]),
     /// trailing zeros of the fraction dropped.</summary>

@@ -115,7 +115,8 @@ internal sealed class CsvRowWriter(Stream stream)
     {
         Separate();
         Room(32);
-        if (!t.UtcDateTime.TryFormat(_block.AsSpan(_used), out var written, "yyyy-MM-ddTHH:mm:ssZ", System.Globalization.CultureInfo.InvariantCulture))
+        var invariant = System.Globalization.CultureInfo.InvariantCulture;
+        if (!t.UtcDateTime.TryFormat(_block.AsSpan(_used), out var written, "yyyy-MM-ddTHH:mm:ssZ", invariant))
             throw new InvalidOperationException("a timestamp did not fit its cell buffer");
         _used += written;
     }
