@@ -46,7 +46,7 @@ public static class AnalyzeCommand
             if (PlantAnalysis.DaysStale(x, result.Ingest) is { } stale)
                 note = $"STALE: latest usable data {SiteCalendar.Date(x.Current.LastUsable, config.Site.TimeZone)}, {stale:0} days before the end of the data" + (note.Length > 0 ? "; " + note : "");
             if (note.Length > 0) notes.Add($"{x.History.Exchanger.Id}: {note}");
-            t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Samples.Count):0}%",
+            t.Add(x.History.Exchanger.Id, $"{x.StatusCounts["ok"] * 100.0 / Math.Max(1, x.History.Columns.Count):0}%",
                 F(c.UActual, "0"), F(c.UClean, "0"), F(c.Cleanliness, "0.00"), F(c.FoulingResistance * 1e4, "0.00"), F(c.FoulingResistanceSigma * 1e4, "0.00"),
                 F(c.LostDuty / 1000, "0"), x.Trend.Cycles.LastOrDefault()?.Chosen?.Model.Key ?? "—", LimitText(x.Trend.Forecast, config.Site.TimeZone));
         }
