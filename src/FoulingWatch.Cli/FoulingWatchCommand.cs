@@ -121,7 +121,7 @@ public static class FoulingWatchCommand
     /// <summary>Runs a command body, turning known failures into a message on stderr and the documented exit code.</summary>
     public static int Guard(TextWriter error, Func<int> body)
     {
-        try { return body(); }
+        try { return Unwrapped(body); }
         catch (ConfigurationException ex) { error.WriteLine(ex.Message); return UsageOrConfigurationError; }
         catch (IngestException ex) { error.WriteLine(ex.Message); return DataError; }
         catch (QuantityOutOfRangeException ex) { error.WriteLine(ex.Message); return DataError; }
@@ -134,6 +134,18 @@ public static class FoulingWatchCommand
                             $"the command and its input files{(ShowDetails ? "" : "; run it again with --verbose to print the details")}.");
             if (ShowDetails) error.WriteLine(ex);
             return DataError;
+        }
+    }
+
+    /// <summary>Work done in parallel (exchangers, parts of a file) fails with an AggregateException: its first failure
+    /// is the failure, reported as if it had happened alone (a file that cannot be written is named, not "unexpected").</summary>
+    private static int Unwrapped(Func<int> body)
+    {
+        try { return body(); }
+        catch (AggregateException ex) when (ex.Flatten().InnerExceptions.Count > 0)
+        {
+            System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(ex.Flatten().InnerExceptions[0]).Throw();
+            throw;
         }
     }
 

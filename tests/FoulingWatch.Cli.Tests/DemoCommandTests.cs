@@ -27,6 +27,23 @@ public class CommandTests
     }
 
     [Fact]
+    public void A_results_folder_that_cannot_be_written_names_the_file_not_an_unexpected_error()
+    {
+        // the exchangers' files are written while others are still being analysed (in parallel): a failure there is
+        // reported as itself
+        using var plant = new SamplePlantCopy();
+        var output = plant.Out("out");
+        Directory.CreateDirectory(output);
+        File.WriteAllText(Path.Combine(output, "E-101"), "a file where the exchanger's folder goes");
+        var (code, _, error) = SamplePlantCopy.Run("analyze", "--config", plant.ConfigPath, "--out", output, "--quiet");
+        Assert.Equal(FoulingWatchCommand.DataError, code);
+        Assert.Contains("cannot read or write a file:", error);
+        Assert.Contains("E-101", error);
+        Assert.DoesNotContain("unexpected", error);
+        Assert.DoesNotContain("AggregateException", error);
+    }
+
+    [Fact]
     public void A_configuration_mistake_exits_with_1_and_names_the_key()
     {
         using var plant = new SamplePlantCopy();
