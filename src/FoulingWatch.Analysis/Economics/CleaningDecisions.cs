@@ -70,10 +70,12 @@ public static class CleaningDecisions
         var costs = new double[specs.Count, n];
         var energies = new double[specs.Count, n];
         var unplannedHit = new int[specs.Count];
+        var path = new PathCosts(gridDays);
+        var daily = new double[gridDays + 1];
         for (var j = 0; j < n; j++)
         {
-            var jj = j;
-            var path = new PathCosts(a => draws.TrueValue(jj, a), lostDuty, pricing.MoneyPerJoule, gridDays);
+            draws.TrueDailyPath(j, daily);
+            path.Fill(daily, lostDuty, pricing.MoneyPerJoule);
             var crossing = limit is { } l ? draws.Crossing(j, l) : double.PositiveInfinity;
             var (_, phi, energyRate, _) = path.Optimum(planned, tau, MaxCycle(crossing, gridDays));
             for (var i = 0; i < specs.Count; i++)
@@ -157,16 +159,17 @@ public static class CleaningDecisions
         return s / a.GetLength(1);
     }
 
-    private static PathCosts CentralPath(FoulingCycle cycle, Func<double, double> lostDuty, Pricing pricing, int gridDays)
+    private static PathCosts CentralPath(FoulingCycle cycle, LostDutyCurve lostDuty, Pricing pricing, int gridDays)
     {
-        var model = cycle.Chosen!.Model;
-        var p = cycle.Chosen.Fit!.Parameters;
-        return new PathCosts(a => model.Value(p, a), lostDuty, pricing.MoneyPerJoule, gridDays);
+        var daily = new double[gridDays + 1];
+        cycle.Chosen!.Model.DailyPath(cycle.Chosen.Fit!.Parameters, 0, daily);
+        var path = new PathCosts(gridDays);
+        path.Fill(daily, lostDuty, pricing.MoneyPerJoule);
+        return path;
     }
 
-    /// <summary>Lost duty (W) as a function of true Rf, tabulated once at typical conditions (ε-NTU twice per point) and
-    /// interpolated linearly; above the table's end it grows at its last slope.</summary>
-    private static Func<double, double> LostDutyTable(ExchangerConfiguration x, FoulingEconomics.TypicalConditions typical, JointDraws draws,
+    /// <summary>Lost duty (W) as a function of true Rf, tabulated once at typical conditions (ε-NTU twice per point).</summary>
+    private static LostDutyCurve LostDutyTable(ExchangerConfiguration x, FoulingEconomics.TypicalConditions typical, JointDraws draws,
         int gridDays, double? limit)
     {
         var top = limit is { } l ? 3 * l : 0;
@@ -175,13 +178,7 @@ public static class CleaningDecisions
         var step = top / (TablePoints - 1);
         var table = new double[TablePoints];
         for (var i = 0; i < TablePoints; i++) table[i] = FoulingEconomics.LostDutyAt(x, typical, i * step);
-        return rf =>
-        {
-            if (!(rf > 0)) return 0;
-            var pos = rf / step;
-            var k = Math.Min((int)pos, TablePoints - 2);
-            return table[k] + (table[k + 1] - table[k]) * (pos - k);
-        };
+        return new LostDutyCurve(table, step);
     }
 
     /// <summary>What would settle an uncertain recommendation: the larger of the systematic uncertainty (calibration, clean
@@ -201,13 +198,26 @@ public static class CleaningDecisions
 
     /// <summary>Where never cleaning is best: the fouling rate (m²·K/W per day) above which a cleaning would pay within the
     /// horizon: a cost rate growing at β pays back a cleaning costing K within H when β ≥ 2K/H² (t* = √(2K/β) = H).</summary>
-    private static double? BreakEvenRate(DecisionOption best, double planned, double horizon, Func<double, double> lostDuty, FoulingCycle cycle,
+    private static double? BreakEvenRate(DecisionOption best, double planned, double horizon, LostDutyCurve lostDuty, FoulingCycle cycle,
         double tNow, Pricing pricing)
     {
         if (best.Kind != "never") return null;
         var rf = Math.Max(0, cycle.Chosen!.Model.Value(cycle.Chosen.Fit!.Parameters, tNow));
         const double step = 1e-6;
-        var slope = (lostDuty(rf + step) - lostDuty(rf)) / step * 86400 * pricing.MoneyPerJoule; // currency per day per m2K/W
+        var slope = (lostDuty.At(rf + step) - lostDuty.At(rf)) / step * 86400 * pricing.MoneyPerJoule; // currency per day per m2K/W
         return slope > 0 ? 2 * planned / (horizon * horizon) / slope : null;
+    }
+}
+
+/// <summary>Lost duty (W) against true Rf (m²·K/W), tabulated at equal steps of Rf from 0 and interpolated linearly;
+/// above the table's end it grows at its last slope; 0 for Rf ≤ 0.</summary>
+public sealed class LostDutyCurve(double[] table, double step)
+{
+    public double At(double rf)
+    {
+        if (!(rf > 0)) return 0;
+        var pos = rf / step;
+        var k = Math.Min((int)pos, table.Length - 2);
+        return table[k] + (table[k + 1] - table[k]) * (pos - k);
     }
 }

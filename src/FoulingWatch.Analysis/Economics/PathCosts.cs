@@ -13,18 +13,40 @@ public sealed class PathCosts
     private readonly double[] _cost;   // currency, cumulative from age 0, per whole day of age
     private readonly double[] _energy; // J of lost duty, cumulative
 
-    public PathCosts(Func<double, double> trueRf, Func<double, double> lostDutyOfRf, double moneyPerJoule, int days)
+    public PathCosts(Func<double, double> trueRf, Func<double, double> lostDutyOfRf, double moneyPerJoule, int days) : this(days)
+    {
+        var q = new double[days + 1];
+        for (var a = 0; a <= days; a++) q[a] = Math.Max(0, lostDutyOfRf(Math.Max(0, trueRf(a))));
+        Accumulate(q, moneyPerJoule);
+    }
+
+    /// <summary>An empty grid of <paramref name="days"/> days, to be priced by <see cref="Fill"/> (one per worker, reused
+    /// for every draw).</summary>
+    public PathCosts(int days)
     {
         _cost = new double[days + 1];
         _energy = new double[days + 1];
-        var previous = Math.Max(0, lostDutyOfRf(Math.Max(0, trueRf(0))));
-        for (var a = 1; a <= days; a++)
+    }
+
+    /// <summary>Prices the path whose true Rf at each whole day of age is <paramref name="trueRf"/> (Days + 1 values,
+    /// overwritten with the lost duty): the same numbers as the constructor taking functions.</summary>
+    public void Fill(Span<double> trueRf, LostDutyCurve lostDuty, double moneyPerJoule)
+    {
+        if (trueRf.Length != _cost.Length) throw new ArgumentException($"the path needs {_cost.Length} daily values", nameof(trueRf));
+        for (var a = 0; a < trueRf.Length; a++) trueRf[a] = Math.Max(0, lostDuty.At(Math.Max(0, trueRf[a])));
+        Accumulate(trueRf, moneyPerJoule);
+    }
+
+    /// <summary>Cumulative energy and cost by the trapezoidal rule over whole days, from the daily lost duty q (W).</summary>
+    private void Accumulate(ReadOnlySpan<double> q, double moneyPerJoule)
+    {
+        _cost[0] = 0;
+        _energy[0] = 0;
+        for (var a = 1; a < q.Length; a++)
         {
-            var q = Math.Max(0, lostDutyOfRf(Math.Max(0, trueRf(a))));
-            var e = 0.5 * (previous + q) * 86400;
+            var e = 0.5 * (q[a - 1] + q[a]) * 86400;
             _energy[a] = _energy[a - 1] + e;
             _cost[a] = _cost[a - 1] + e * moneyPerJoule;
-            previous = q;
         }
     }
 

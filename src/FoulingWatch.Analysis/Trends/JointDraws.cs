@@ -40,6 +40,9 @@ public sealed class JointDraws
     /// <summary>True Rf of draw j at t days since the cycle start.</summary>
     public double TrueValue(int j, double t) => Models[Model[j]].Value(Parameters[j], t) - Offset[j];
 
+    /// <summary>True Rf of draw j at every whole day 0 … into.Length − 1 (<see cref="TrueValue"/> day by day).</summary>
+    public void TrueDailyPath(int j, Span<double> into) => Models[Model[j]].DailyPath(Parameters[j], Offset[j], into);
+
     /// <summary>Days since the cycle start at which the true Rf of draw j reaches the limit (+∞: never).</summary>
     public double Crossing(int j, double limit) => Models[Model[j]].CrossingTime(Parameters[j], limit + Offset[j]);
 
