@@ -22,7 +22,7 @@ public sealed class NineDigitsTests
         var random = new Random(20261203);
         for (var i = 0; i < 2_000_000; i++)
         {
-            var decade = random.Next(-9, 12);
+            var decade = random.Next(-14, 12);
             var v = (1 + 9 * random.NextDouble()) * Math.Pow(10, decade);
             Same(random.Next(2) == 0 ? v : -v);
         }
@@ -39,7 +39,7 @@ public sealed class NineDigitsTests
     {
         // exact ties at the ninth digit are representable only with a half unit at 10^8..10^9
         for (var k = 0; k < 2000; k++) { Same(100_000_000.5 + k); Same(999_998_000.5 + k); Same(123_456_788.5 + 2 * k); }
-        foreach (var edge in new[] { 1e-5, 1e-4, 1e-3, 0.01, 0.1, 1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9 })
+        foreach (var edge in new[] { 1e-12, 1e-11, 1e-10, 1e-9, 1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 0.01, 0.1, 1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9 })
             for (var step = -50; step <= 50; step++)
             {
                 var v = edge;
@@ -49,7 +49,8 @@ public sealed class NineDigitsTests
                 Same(-v);
             }
         foreach (var v in new[] { 0.0, -0.0, 999_999_999.4, 999_999_999.5, 999_999_999.6, 9.999999995, 0.000099999999951, 1e300, 1e-300,
-                     5e-324, double.MaxValue, double.Epsilon, 123456789, 0.5, 2.5, 1.5e-5 })
+                     5e-324, double.MaxValue, double.Epsilon, 123456789, 0.5, 2.5, 1.5e-5, 9.9999999951e-6, 9.999999995e-12,
+                     1.0000000049e-11, 2.00925424e-5, 6.59495332E-05, 1.23456789e-10 })
             Same(v);
     }
 }

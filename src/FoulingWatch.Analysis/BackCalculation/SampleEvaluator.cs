@@ -236,21 +236,29 @@ public sealed class SampleEvaluator
         if (!(qh > 0) || !(qc > 0)) return double.NaN;
         var q = _x.DutyBasis switch { DutyBasis.Hot => qh, DutyBasis.Cold => qc, _ => 0.5 * (qh + qc) };
         var (thi, tho, tci, tco) = TerminalTemperatures(m);
-        if (!Core.Exchangers.Lmtd.TryFromTerminalDifferences(thi - tco, tho - tci, out var lmtd)) return double.NaN;
-        double f;
-        if (_x.Hot.Fluid.IsPhaseChange || _x.Cold.Fluid.IsPhaseChange) f = 1.0;
-        else
+        double lmtd, f;
+        if (memo is null || !memo.Driving.TryGet(thi, tho, tci, tco, out lmtd, out f))
         {
-            var pr = TemperatureEffectiveness.FromTemperatures(T(thi), T(tho), T(tci), T(tco));
-            if (pr is null || !_x.Arrangement.TryLmtdCorrectionFactor(pr.Value.P, pr.Value.R, out f)) return double.NaN;
-            f = Math.Min(f, 1.0);
+            (lmtd, f) = DrivingForce(thi, tho, tci, tco);
+            memo?.Driving.Remember(thi, tho, tci, tco, lmtd, f);
         }
+        if (double.IsNaN(lmtd)) return double.NaN;
         var u = q / (_x.Area * f * lmtd);
         if (!(u > 0)) return double.NaN;
         var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var (tubeBulk, shellBulk) = BulkTemperatures(m);
         return 1 / u - 1 / clean.CleanU(tube, shell, tubeBulk, shellBulk);
+    }
+
+    /// <summary>LMTD and F (capped at 1; 1 with a phase change) of the terminal temperatures, NaN when undefined.</summary>
+    private (double Lmtd, double F) DrivingForce(double thi, double tho, double tci, double tco)
+    {
+        if (!Core.Exchangers.Lmtd.TryFromTerminalDifferences(thi - tco, tho - tci, out var lmtd)) return (double.NaN, double.NaN);
+        if (_x.Hot.Fluid.IsPhaseChange || _x.Cold.Fluid.IsPhaseChange) return (lmtd, 1.0);
+        var pr = TemperatureEffectiveness.FromTemperatures(T(thi), T(tho), T(tci), T(tco));
+        if (pr is null || !_x.Arrangement.TryLmtdCorrectionFactor(pr.Value.P, pr.Value.R, out var f)) return (double.NaN, double.NaN);
+        return (lmtd, Math.Min(f, 1.0));
     }
 
     /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the
@@ -270,11 +278,34 @@ public sealed class SampleEvaluator
 public readonly record struct CleanValues(double UClean, double FoulingResistance, double Cleanliness, double DutyClean,
     double DutyRated, double LostDuty, double HotOutletClean, double ColdOutletClean);
 
-/// <summary>The last enthalpy change of each side of one sample (fixed pressures), with its validity verdict.</summary>
+/// <summary>The last enthalpy change of each side of one sample (fixed pressures), with its validity verdict, and the
+/// last LMTD and F (a flow probe moves no temperature).</summary>
 public sealed class DutyMemo
 {
     internal SideMemo Hot { get; } = new();
     internal SideMemo Cold { get; } = new();
+    internal DrivingMemo Driving { get; } = new();
+
+    /// <summary>The first terminal temperatures seen (the sample's own, which every flow probe keeps) and the last.</summary>
+    internal sealed class DrivingMemo
+    {
+        private readonly double[] _first = [double.NaN, 0, 0, 0, 0, 0], _last = [double.NaN, 0, 0, 0, 0, 0];
+
+        public bool TryGet(double thi, double tho, double tci, double tco, out double lmtd, out double f) =>
+            Match(_first, thi, tho, tci, tco, out lmtd, out f) || Match(_last, thi, tho, tci, tco, out lmtd, out f);
+
+        public void Remember(double thi, double tho, double tci, double tco, double lmtd, double f)
+        {
+            var slot = double.IsNaN(_first[0]) ? _first : _last;
+            (slot[0], slot[1], slot[2], slot[3], slot[4], slot[5]) = (thi, tho, tci, tco, lmtd, f);
+        }
+
+        private static bool Match(double[] s, double thi, double tho, double tci, double tco, out double lmtd, out double f)
+        {
+            (lmtd, f) = (s[4], s[5]);
+            return thi.Equals(s[0]) && tho.Equals(s[1]) && tci.Equals(s[2]) && tco.Equals(s[3]);
+        }
+    }
 
     internal sealed class SideMemo
     {

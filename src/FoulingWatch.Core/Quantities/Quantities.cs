@@ -6,7 +6,7 @@ public readonly record struct Temperature
     public Temperature(double kelvin)
     {
         if (!(kelvin >= 0.0) || double.IsInfinity(kelvin))
-            throw new QuantityOutOfRangeException("temperature", kelvin, "K", "0 K or above (absolute temperature)");
+            QuantityOutOfRangeException.Throw("temperature", kelvin, "K", "0 K or above (absolute temperature)");
         Kelvin = kelvin;
     }
 
@@ -35,7 +35,7 @@ public readonly record struct MassFlow
     public MassFlow(double kilogramsPerSecond)
     {
         if (!(kilogramsPerSecond >= 0.0) || double.IsInfinity(kilogramsPerSecond))
-            throw new QuantityOutOfRangeException("mass flow", kilogramsPerSecond, "kg/s", "0 kg/s or above");
+            QuantityOutOfRangeException.Throw("mass flow", kilogramsPerSecond, "kg/s", "0 kg/s or above");
         KilogramsPerSecond = kilogramsPerSecond;
     }
 
@@ -55,7 +55,7 @@ public readonly record struct Area
     public Area(double squareMetres)
     {
         if (!(squareMetres > 0.0) || double.IsInfinity(squareMetres))
-            throw new QuantityOutOfRangeException("area", squareMetres, "m2", "above 0 m2");
+            QuantityOutOfRangeException.Throw("area", squareMetres, "m2", "above 0 m2");
         SquareMetres = squareMetres;
     }
 
@@ -68,7 +68,7 @@ public readonly record struct Pressure
     public Pressure(double pascals)
     {
         if (!(pascals > 0.0) || double.IsInfinity(pascals))
-            throw new QuantityOutOfRangeException("absolute pressure", pascals, "Pa", "above 0 Pa");
+            QuantityOutOfRangeException.Throw("absolute pressure", pascals, "Pa", "above 0 Pa");
         Pascals = pascals;
     }
 
@@ -86,7 +86,7 @@ public readonly record struct HeatTransferCoefficient
     public HeatTransferCoefficient(double wattsPerSquareMetreKelvin)
     {
         if (!(wattsPerSquareMetreKelvin > 0.0) || double.IsInfinity(wattsPerSquareMetreKelvin))
-            throw new QuantityOutOfRangeException("heat-transfer coefficient", wattsPerSquareMetreKelvin, "W/m2K", "above 0 W/m2K");
+            QuantityOutOfRangeException.Throw("heat-transfer coefficient", wattsPerSquareMetreKelvin, "W/m2K", "above 0 W/m2K");
         WattsPerSquareMetreKelvin = wattsPerSquareMetreKelvin;
     }
 

@@ -14,6 +14,12 @@ public class QuantityOutOfRangeException : ArgumentOutOfRangeException
         ValidRange = validRange;
     }
 
+    /// <summary>Throws the exception: kept out of the quantities' constructors so that those stay small enough to be
+    /// inlined (they run a few times per probe of every sample).</summary>
+    [System.Diagnostics.CodeAnalysis.DoesNotReturn]
+    public static void Throw(string quantity, double value, string unit, string validRange) =>
+        throw new QuantityOutOfRangeException(quantity, value, unit, validRange);
+
     public string Quantity { get; }
     public string Unit { get; }
     public string ValidRange { get; }
