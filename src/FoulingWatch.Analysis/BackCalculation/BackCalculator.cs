@@ -117,12 +117,13 @@ public static class BackCalculator
         }
 
         // Clean-U values straight into the columns, from two buffers per worker: no record per sample.
-        Parallel.For(0, n, () => (Used: new double[Measurement.Count], Measured: new double[Measurement.Count]), (k, _, buffers) =>
-        {
-            Complete(k, buffers.Used, buffers.Measured);
-            return buffers;
-        }, _ => { });
-        void Complete(int k, double[] used, double[] measured)
+        Parallel.For(0, n, () => (Used: new double[Measurement.Count], Measured: new double[Measurement.Count], Memo: new DutyMemo()),
+            (k, _, buffers) =>
+            {
+                Complete(k, buffers.Used, buffers.Measured, buffers.Memo);
+                return buffers;
+            }, _ => { });
+        void Complete(int k, double[] used, double[] measured, DutyMemo memo)
         {
             var u = c.UActual[k];
             if (!(u > 0)) return;
@@ -140,7 +141,7 @@ public static class BackCalculator
             if (c.Status[k] != SampleStatus.Ok) return;
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
             var pCold = pColdSeries?[k] ?? x.Cold.PressurePascals;
-            var instruments = evaluator.FoulingResistanceSigma(c.MeasurementsInto(k, measured), pHot, pCold, clean);
+            var instruments = evaluator.FoulingResistanceSigma(c.MeasurementsInto(k, measured), pHot, pCold, clean, memo);
             var (tubeBulk, shellBulk) = evaluator.BulkTemperatures(used);
             var reference = clean.InverseSigma(c.TubeFlow[k], c.ShellFlow[k], tubeBulk, shellBulk);
             c.SigmaSystematic[k] = Math.Sqrt(instruments * instruments + reference * reference);

@@ -248,7 +248,8 @@ public sealed class SampleEvaluator
         var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var (tubeBulk, shellBulk) = BulkTemperatures(m);
-        return 1 / u - 1 / clean.CleanU(tube, shell, tubeBulk, shellBulk);
+        var uc = memo is null ? clean.CleanU(tube, shell, tubeBulk, shellBulk) : memo.Clean.CleanU(clean, tube, shell, tubeBulk, shellBulk);
+        return 1 / u - 1 / uc;
     }
 
     /// <summary>LMTD and F (capped at 1; 1 with a phase change) of the terminal temperatures, NaN when undefined.</summary>
@@ -266,9 +267,10 @@ public sealed class SampleEvaluator
     /// <remarks>The same central differences (step σᵢ/100) as <see cref="FirstOrderPropagation.StandardUncertainty"/> on
     /// <see cref="FoulingResistanceOf"/>, with each side's enthalpy change remembered between probes (a flow probe
     /// re-evaluates no fluid): the same values with a third of the property calls.</remarks>
-    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean)
+    /// <param name="memo">One per worker, reused sample after sample (cleared here), or null for a fresh one.</param>
+    public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
-        var memo = new DutyMemo();
+        memo = memo?.Cleared() ?? new DutyMemo();
         return FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean, memo), m, Sigmas(m));
     }
 }
@@ -285,6 +287,16 @@ public sealed class DutyMemo
     internal SideMemo Hot { get; } = new();
     internal SideMemo Cold { get; } = new();
     internal DrivingMemo Driving { get; } = new();
+    internal CleanUMemo Clean { get; } = new();
+
+    /// <summary>Forgets the sample's own terminal temperatures and side terms, so that the next sample's are kept as
+    /// its own (the memos match exact arguments, so a value is never wrong, only found less often).</summary>
+    public DutyMemo Cleared()
+    {
+        Driving.Clear();
+        Clean.Clear();
+        return this;
+    }
 
     /// <summary>The first terminal temperatures seen (the sample's own, which every flow probe keeps) and the last.</summary>
     internal sealed class DrivingMemo
@@ -293,6 +305,8 @@ public sealed class DutyMemo
 
         public bool TryGet(double thi, double tho, double tci, double tco, out double lmtd, out double f) =>
             Match(_first, thi, tho, tci, tco, out lmtd, out f) || Match(_last, thi, tho, tci, tco, out lmtd, out f);
+
+        public void Clear() => (_first[0], _last[0]) = (double.NaN, double.NaN);
 
         public void Remember(double thi, double tho, double tci, double tco, double lmtd, double f)
         {
