@@ -108,12 +108,15 @@ public sealed class JointDraws
     }
 
     /// <summary>Quantile q of the true Rf over the draws at t days since the cycle start.</summary>
-    public double ValueQuantile(double t, double q)
+    public double ValueQuantile(double t, double q) => ValueQuantiles(t, q, q).Low;
+
+    /// <summary>Two quantiles (low, high) of the true Rf over the draws at t, from one sort (a band's two edges).</summary>
+    public (double Low, double High) ValueQuantiles(double t, double low, double high)
     {
         var v = new double[Length];
         for (var j = 0; j < Length; j++) v[j] = TrueValue(j, t);
         Array.Sort(v);
-        return Quantile(v, q);
+        return (Quantile(v, low), Quantile(v, high));
     }
 
     public static double Quantile(double[] sorted, double q) =>

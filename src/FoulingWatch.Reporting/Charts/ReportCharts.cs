@@ -138,8 +138,8 @@ public static class ReportCharts
                 var hi = new double[steps];
                 for (var i = 0; i < steps; i++)
                 {
-                    lo[i] = (x.Trend.Draws?.ValueQuantile(ts[i], 0.05) ?? double.NaN) * scale;
-                    hi[i] = (x.Trend.Draws?.ValueQuantile(ts[i], 0.95) ?? double.NaN) * scale;
+                    var (low, high) = x.Trend.Draws?.ValueQuantiles(ts[i], 0.05, 0.95) ?? (double.NaN, double.NaN);
+                    (lo[i], hi[i]) = (low * scale, high * scale);
                 }
                 var xs = ts.Select(t => X(cycle.Start + TimeSpan.FromDays(t))).ToArray();
                 if (lo.Zip(hi).Any(p => double.IsFinite(p.First) && double.IsFinite(p.Second) && p.Second > p.First))
@@ -199,9 +199,26 @@ public static class ReportCharts
     {
         var c = x.History.Columns;
         var column = pick(c);
-        var groups = c.UtcDays(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k])).ToList();
-        return (groups.Select(g => g.Day.AddHours(12).ToOADate()).ToArray(),
-            groups.Select(g => DailyFouling.Median(g.Samples.Select(k => column[k] * scale).Sorted())).ToArray());
+        var xs = new List<double>();
+        var ys = new List<double>();
+        foreach (var (day, samples) in c.UtcDays(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k])))
+        {
+            var values = new double[samples.Count];
+            for (var i = 0; i < values.Length; i++) values[i] = column[samples[i]] * scale;
+            xs.Add(day.AddHours(12).ToOADate());
+            ys.Add(Median(values));
+        }
+        return (xs.ToArray(), ys.ToArray());
+    }
+
+    /// <summary><see cref="DailyFouling.Median"/> of finite values by selection of the middle order statistics: the
+    /// same value as sorting them all (reorders the array).</summary>
+    private static double Median(double[] values)
+    {
+        var n = values.Length;
+        if (n == 0) return double.NaN;
+        var upper = Sorting.Select(values, n / 2);
+        return n % 2 == 1 ? upper : 0.5 * (Sorting.Select(values, n / 2 - 1) + upper);
     }
 
     private static void Line(Plot plot, double[] xs, double[] ys, Color color, string legend, bool dashed = false)
