@@ -23,6 +23,14 @@ public abstract class FoulingModel
 
     /// <summary>Rf(a) − offset at every whole day a = 0 … into.Length − 1: the same numbers as <see cref="Value"/> day by
     /// day, in one call per path (the economics price a thousand five-year paths per exchanger).</summary>
+    /// <summary><see cref="Value"/> and <see cref="Gradient"/> at t in one call (the same numbers; a law may share the
+    /// work of the two, as the fits ask for both at every point of every iteration).</summary>
+    public virtual double ValueAndGradient(ReadOnlySpan<double> p, double t, Span<double> g)
+    {
+        Gradient(p, t, g);
+        return Value(p, t);
+    }
+
     public virtual void DailyPath(ReadOnlySpan<double> p, double offset, Span<double> into)
     {
         for (var a = 0; a < into.Length; a++) into[a] = Value(p, a) - offset;
@@ -67,6 +75,15 @@ public sealed class AsymptoticFouling : FoulingModel
         g[2] = -p[1] * t / (p[2] * p[2]) * e;
     }
 
+    public override double ValueAndGradient(ReadOnlySpan<double> p, double t, Span<double> g)
+    {
+        var e = Math.Exp(-t / p[2]);
+        g[0] = 1;
+        g[1] = 1 - e;
+        g[2] = -p[1] * t / (p[2] * p[2]) * e;
+        return p[0] + p[1] * (1 - e);
+    }
+
     public override double Rate(ReadOnlySpan<double> p, double t) => p[1] / p[2] * Math.Exp(-t / p[2]);
     public override double CrossingTime(ReadOnlySpan<double> p, double limit) =>
         !(p[2] > 0) || p[1] < 0 ? double.NaN : limit <= p[0] ? 0 : limit - p[0] >= p[1] ? double.PositiveInfinity : -p[2] * Math.Log(1 - (limit - p[0]) / p[1]);
@@ -106,6 +123,15 @@ public abstract class PowerLawFouling(double nLow, double nHigh, double[] startE
         g[0] = 1;
         g[1] = tn;
         g[2] = t > 0 ? p[1] * tn * Math.Log(S(t)) : 0;
+    }
+
+    public override double ValueAndGradient(ReadOnlySpan<double> p, double t, Span<double> g)
+    {
+        var tn = Math.Pow(S(t), p[2]);
+        g[0] = 1;
+        g[1] = tn;
+        g[2] = t > 0 ? p[1] * tn * Math.Log(S(t)) : 0;
+        return p[0] + p[1] * tn;
     }
 
     public override double Rate(ReadOnlySpan<double> p, double t) =>
@@ -187,11 +213,9 @@ public static partial class LeastSquares
         {
             for (var i = 0; i < n; i++)
             {
-                values[i] = model.Value(p, t[i]);
-                model.Gradient(p, t[i], jacobian.Slice(i * k, k));
+                values[i] = model.ValueAndGradient(p, t[i], jacobian.Slice(i * k, k));
             }
-            whitening.ApplyInPlace(values, weights);
-            for (var j = 0; j < k; j++) whitening.ApplyInPlace(jacobian, weights, k, j);
+            whitening.ApplyInPlace(values, jacobian, k, weights);
         }
         var lower = model.LowerBounds(t, y);
         var upper = model.UpperBounds(t, y);

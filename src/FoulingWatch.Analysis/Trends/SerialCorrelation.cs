@@ -88,6 +88,35 @@ public sealed class Whitening
         }
     }
 
+    /// <summary><see cref="ApplyInPlace(Span{double}, double[], int, int)"/> on the values and on each column of the row-major n × k Jacobian, in one pass:
+    /// the k + 1 filters are independent, so they run side by side instead of one after another (the same arithmetic
+    /// for each; a filter's steps depend on each other, which makes one filter at a time wait on every step).</summary>
+    public void ApplyInPlace(Span<double> values, Span<double> jacobian, int k, double[] weights)
+    {
+        if (IsNone) return;
+        if (k == 3) { ApplyInPlace3(values, jacobian, weights); return; }
+        ApplyInPlace(values, weights);
+        for (var j = 0; j < k; j++) ApplyInPlace(jacobian, weights, k, j);
+    }
+
+    private void ApplyInPlace3(Span<double> values, Span<double> jacobian, double[] weights)
+    {
+        double s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+        for (var i = 0; i < weights.Length; i++)
+        {
+            var root = Math.Sqrt(weights[i]);
+            double decay = _decay[i], scale = _scale[i], gain = _gain[i];
+            ref var v = ref values[i];
+            ref var j0 = ref jacobian[3 * i];
+            ref var j1 = ref jacobian[3 * i + 1];
+            ref var j2 = ref jacobian[3 * i + 2];
+            double p0 = decay * s0, p1 = decay * s1, p2 = decay * s2, p3 = decay * s3;
+            double n0 = root * v - p0, n1 = root * j0 - p1, n2 = root * j1 - p2, n3 = root * j2 - p3;
+            (v, j0, j1, j2) = (n0 * scale, n1 * scale, n2 * scale, n3 * scale);
+            (s0, s1, s2, s3) = (p0 + gain * n0, p1 + gain * n1, p2 + gain * n2, p3 + gain * n3);
+        }
+    }
+
     public Matrix<double> ApplyColumns(Matrix<double> m, double[] weights)
     {
         if (IsNone) return m;

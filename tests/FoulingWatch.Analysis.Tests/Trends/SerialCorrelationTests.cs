@@ -95,4 +95,44 @@ public class SerialCorrelationTests
         Assert.Equal(0.6652, w[0], 4);
         Assert.Equal(0.0900, w[2], 4);
     }
+
+    // Self-consistency (not an external check): the fits' fused paths give the same bits as the separate ones: the
+    // whitening of values and Jacobian in one pass against column by column, and each law's value-and-gradient against
+    // Value and Gradient (the external checks of the fits, GLS and NIST StRD above, run through the fused paths).
+    [Fact]
+    public void The_fused_whitening_and_value_gradient_paths_equal_the_separate_ones_bit_for_bit()
+    {
+        var rng = new Random(20261203);
+        var t = Enumerable.Range(0, 300).Select(i => i + 0.3 * rng.NextDouble() + (i > 150 ? 4 : 0)).ToArray();
+        var weights = t.Select(_ => 0.2 + rng.NextDouble()).ToArray();
+        foreach (var (phi, share) in new[] { (0.8, 1.0), (0.55, 0.7), (0.95, 0.4) })
+        {
+            var whitening = new Whitening(t, phi, share);
+            foreach (var k in new[] { 2, 3, 4 })
+            {
+                var values = t.Select(_ => rng.NextDouble() - 0.5).ToArray();
+                var jacobian = Enumerable.Range(0, t.Length * k).Select(_ => rng.NextDouble()).ToArray();
+                var (v2, j2) = ((double[])values.Clone(), (double[])jacobian.Clone());
+                whitening.ApplyInPlace(values, jacobian, k, weights);
+                whitening.ApplyInPlace(v2, weights);
+                for (var j = 0; j < k; j++) whitening.ApplyInPlace(j2, weights, k, j);
+                Assert.Equal(v2, values);
+                Assert.Equal(j2, jacobian);
+                Assert.NotEqual(0, values.Sum()); // the filter did run
+            }
+        }
+        FoulingModel[] models = [new LinearFouling(), new AsymptoticFouling(), new FallingRateFouling(), new AcceleratingFouling()];
+        double[][] parameters = [[1e-5, 2e-6], [2e-5, 4e-4, 120], [-1e-5, 3e-5, 0.55], [0, 1e-4, 1.8]];
+        for (var m = 0; m < models.Length; m++)
+            foreach (var time in new[] { 0.0, 0.5, 1, 17.25, 300, 1800 })
+            {
+                var p = parameters[m];
+                var fused = new double[p.Length];
+                var separate = new double[p.Length];
+                var value = models[m].ValueAndGradient(p, time, fused);
+                models[m].Gradient(p, time, separate);
+                Assert.Equal(models[m].Value(p, time), value);
+                Assert.Equal(separate, fused);
+            }
+    }
 }
