@@ -5,7 +5,8 @@ using FoulingWatch.Analysis;
 namespace FoulingWatch.Cli;
 
 /// <summary>Prints the stage breakdown of a run as "timing &lt;stage&gt; &lt;seconds&gt;" lines, then the process's CPU seconds and
-/// peak resident set (VmHWM from /proc on Linux; the peak working set elsewhere).</summary>
+/// peak resident set (VmHWM from /proc on Linux; the peak working set elsewhere), the bytes allocated, the collectors'
+/// pause time and the collection counts by generation.</summary>
 public static class RunTimings
 {
     public static void Print(TextWriter error)
@@ -15,6 +16,9 @@ public static class RunTimings
         var process = Process.GetCurrentProcess();
         error.WriteLine(string.Create(inv, $"timing cpu_s {process.TotalProcessorTime.TotalSeconds:0.000}"));
         error.WriteLine(string.Create(inv, $"timing peak_rss_mb {PeakResidentBytes(process) / 1e6:0}"));
+        error.WriteLine(string.Create(inv, $"timing allocated_mb {GC.GetTotalAllocatedBytes() / 1e6:0}"));
+        error.WriteLine(string.Create(inv, $"timing gc_pause_s {GC.GetTotalPauseDuration().TotalSeconds:0.000}"));
+        error.WriteLine(string.Create(inv, $"timing collections_gen0_gen1_gen2 {GC.CollectionCount(0)}/{GC.CollectionCount(1)}/{GC.CollectionCount(2)}"));
     }
 
     private static long PeakResidentBytes(Process process)

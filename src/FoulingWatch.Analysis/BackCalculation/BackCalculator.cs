@@ -73,12 +73,12 @@ public static class BackCalculator
         var c = new SampleColumns(n, data.GridStart, data.Interval, series, x.DutyBasis == DutyBasis.Reconciled);
         var frozenDetail = tags.Select(t => $"{t.Tag} held one value for at least {settings.FrozenAfter.TotalHours:0.#} h").ToArray();
         // Each worker reads its samples into one buffer of its own: the evaluation record is stored in the columns at once.
-        Parallel.For(0, n, () => new double[Measurement.Count], (k, _, m) =>
+        Parallel.For(0, n, () => (Measured: new double[Measurement.Count], Memo: new DutyMemo()), (k, _, buffers) =>
         {
-            Evaluate(k, m);
-            return m;
+            Evaluate(k, buffers.Measured, buffers.Memo);
+            return buffers;
         }, _ => { });
-        void Evaluate(int k, double[] m)
+        void Evaluate(int k, double[] m, DutyMemo memo)
         {
             for (var i = 0; i < m.Length; i++) m[i] = series[i][k];
             var pHot = pHotSeries?[k] ?? x.Hot.PressurePascals;
@@ -95,7 +95,7 @@ public static class BackCalculator
                 c.Detail[k] = frozenDetail[frozen[k]];
                 return;
             }
-            var e = evaluator.Evaluate(m, pHot, pCold, reconcile: true);
+            var e = evaluator.Evaluate(m, pHot, pCold, reconcile: true, memo);
             if (e.Status == SampleStatus.Ok && Math.Abs(e.BalanceMismatch) > x.BalanceTolerance)
                 e = e with { Status = SampleStatus.Balance, Detail = FormattableString.Invariant($"hot and cold duties differ by {e.BalanceMismatch:P1}") };
             if (e.Status == SampleStatus.Ok && !IsSteady(series, k, window, settings))

@@ -54,13 +54,18 @@ public sealed class SampleEvaluator
     public double[] Sigmas(ReadOnlySpan<double> m)
     {
         var s = new double[Measurement.Count];
+        SigmasInto(m, s);
+        return s;
+    }
+
+    private void SigmasInto(ReadOnlySpan<double> m, double[] s)
+    {
         s[Measurement.HotFlow] = _x.Hot.Flow.Sigma(m[Measurement.HotFlow]);
         s[Measurement.HotInlet] = _x.Hot.Inlet.Sigma(m[Measurement.HotInlet]);
         s[Measurement.HotOutlet] = _x.Hot.Outlet.Sigma(m[Measurement.HotOutlet]);
         s[Measurement.ColdFlow] = _x.Cold.Flow.Sigma(m[Measurement.ColdFlow]);
         s[Measurement.ColdInlet] = _x.Cold.Inlet.Sigma(m[Measurement.ColdInlet]);
         s[Measurement.ColdOutlet] = _x.Cold.Outlet.Sigma(m[Measurement.ColdOutlet]);
-        return s;
     }
 
     private static Temperature T(double k) => Temperature.FromKelvin(k);
@@ -271,7 +276,15 @@ public sealed class SampleEvaluator
     public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
         memo = memo?.Cleared() ?? new DutyMemo();
-        return FirstOrderPropagation.StandardUncertainty(v => FoulingResistanceOf(v, pHot, pCold, clean, memo), m, Sigmas(m));
+        var (sigma, probe, sensitivity) = memo.Workspace;
+        SigmasInto(m, sigma);
+        return FirstOrderPropagation.StandardUncertainty(new RfAt(this, pHot, pCold, clean, memo), m, sigma, probe, sensitivity);
+    }
+
+    private readonly struct RfAt(SampleEvaluator evaluator, double pHot, double pCold, ICleanUModel clean, DutyMemo memo)
+        : FirstOrderPropagation.IFunction
+    {
+        public double At(double[] x) => evaluator.FoulingResistanceOf(x, pHot, pCold, clean, memo);
     }
 }
 
@@ -286,15 +299,22 @@ public sealed class DutyMemo
 {
     internal SideMemo Hot { get; } = new();
     internal SideMemo Cold { get; } = new();
-    internal DrivingMemo Driving { get; } = new();
-    internal CleanUMemo Clean { get; } = new();
+    private DrivingMemo? _driving;
+    private CleanUMemo? _clean;
+    private (double[], double[], double[])? _workspace;
+    internal DrivingMemo Driving => _driving ??= new();
+    internal CleanUMemo Clean => _clean ??= new();
+
+    /// <summary>Buffers for the propagation: the sensor sigmas, the probe point and the sensitivities.</summary>
+    internal (double[] Sigma, double[] Probe, double[] Sensitivity) Workspace =>
+        _workspace ??= (new double[Measurement.Count], new double[Measurement.Count], new double[Measurement.Count]);
 
     /// <summary>Forgets the sample's own terminal temperatures and side terms, so that the next sample's are kept as
     /// its own (the memos match exact arguments, so a value is never wrong, only found less often).</summary>
     public DutyMemo Cleared()
     {
-        Driving.Clear();
-        Clean.Clear();
+        _driving?.Clear();
+        _clean?.Clear();
         return this;
     }
 

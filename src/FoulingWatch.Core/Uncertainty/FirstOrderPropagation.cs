@@ -9,20 +9,38 @@ namespace FoulingWatch.Core.Uncertainty;
 /// </remarks>
 public static class FirstOrderPropagation
 {
+    /// <summary>A function evaluated at probe points (a struct, so that a caller probing millions of points allocates
+    /// nothing per call).</summary>
+    public interface IFunction
+    {
+        double At(double[] x);
+    }
+
+    private readonly struct Delegated(Func<double[], double> f) : IFunction
+    {
+        public double At(double[] x) => f(x);
+    }
+
     /// <param name="correlation">r(xᵢ, xⱼ), or null for independent inputs.</param>
-    public static double StandardUncertainty(Func<double[], double> f, double[] x, double[] u, double[,]? correlation = null)
+    public static double StandardUncertainty(Func<double[], double> f, double[] x, double[] u, double[,]? correlation = null) =>
+        StandardUncertainty(new Delegated(f), x, u, new double[x.Length], new double[x.Length], correlation);
+
+    /// <summary>As above, with the probe point and the sensitivities in caller-owned buffers (length n; overwritten).</summary>
+    public static double StandardUncertainty<TFunction>(TFunction f, double[] x, double[] u, double[] probe, double[] c,
+        double[,]? correlation = null) where TFunction : IFunction
     {
         var n = x.Length;
-        var c = new double[n];
-        var probe = (double[])x.Clone();
+        if (u.Length != n || probe.Length != n || c.Length != n) throw new ArgumentException("x, u and the buffers differ in length");
+        Array.Copy(x, probe, n);
         for (var i = 0; i < n; i++)
         {
+            c[i] = 0;
             if (!(u[i] > 0)) continue;
             var h = u[i] / 100;
             probe[i] = x[i] + h;
-            var up = f(probe);
+            var up = f.At(probe);
             probe[i] = x[i] - h;
-            var down = f(probe);
+            var down = f.At(probe);
             probe[i] = x[i];
             if (!double.IsFinite(up) || !double.IsFinite(down)) return double.NaN;
             c[i] = (up - down) / (2 * h);
