@@ -18,7 +18,8 @@ public static class RunTimings
         error.WriteLine(string.Create(inv, $"timing peak_rss_mb {PeakResidentBytes(process) / 1e6:0}"));
         error.WriteLine(string.Create(inv, $"timing allocated_mb {GC.GetTotalAllocatedBytes() / 1e6:0}"));
         error.WriteLine(string.Create(inv, $"timing gc_pause_s {GC.GetTotalPauseDuration().TotalSeconds:0.000}"));
-        error.WriteLine(string.Create(inv, $"timing collections_gen0_gen1_gen2 {GC.CollectionCount(0)}/{GC.CollectionCount(1)}/{GC.CollectionCount(2)}"));
+        for (var generation = 0; generation <= 2; generation++)
+            error.WriteLine(string.Create(inv, $"timing collections_gen{generation} {GC.CollectionCount(generation)}"));
     }
 
     private static long PeakResidentBytes(Process process)
