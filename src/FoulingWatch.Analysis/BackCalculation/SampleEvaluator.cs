@@ -42,7 +42,7 @@ public sealed record SampleEvaluation
 }
 
 /// <summary>Back-calculates duty, LMTD·F and actual U of one sample, then clean U, Rf and lost duty at the sample's conditions.</summary>
-public sealed class SampleEvaluator
+public sealed partial class SampleEvaluator
 {
     private readonly ExchangerConfiguration _x;
 
@@ -268,12 +268,24 @@ public sealed class SampleEvaluator
     }
 
     /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the
-    /// manner of ASME PTC 19.1 (<see cref="FirstOrderPropagation"/>). Sensor errors are taken as independent.</summary>
-    /// <remarks>The same central differences (step σᵢ/100) as <see cref="FirstOrderPropagation.StandardUncertainty"/> on
-    /// <see cref="FoulingResistanceOf"/>, with each side's enthalpy change remembered between probes (a flow probe
-    /// re-evaluates no fluid): the same values with a third of the property calls.</remarks>
+    /// manner of ASME PTC 19.1 (GUM 5.1.2). Sensor errors are taken as independent. The sensitivities are
+    /// <see cref="FoulingResistanceSensitivities"/>; NaN where they are undefined.</summary>
     /// <param name="memo">One per worker, reused sample after sample (cleared here), or null for a fresh one.</param>
     public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
+    {
+        memo = memo?.Cleared() ?? new DutyMemo();
+        var (sigma, _, sensitivity) = memo.Workspace;
+        SigmasInto(m, sigma);
+        if (!FoulingResistanceSensitivities(m, pHot, pCold, clean, sigma, sensitivity, memo)) return double.NaN;
+        var variance = 0.0;
+        for (var i = 0; i < sigma.Length; i++) variance += sensitivity[i] * sensitivity[i] * sigma[i] * sigma[i];
+        return Math.Sqrt(Math.Max(0, variance));
+    }
+
+    /// <summary>The same σ by central differences of the whole model (<see cref="FirstOrderPropagation.StandardUncertainty"/>
+    /// on <see cref="FoulingResistanceOf"/>, step σᵢ/100): twelve evaluations of every part, eight of the fluids. The
+    /// reference the chain-rule sensitivities are tested against.</summary>
+    public double FoulingResistanceSigmaByProbes(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
         memo = memo?.Cleared() ?? new DutyMemo();
         var (sigma, probe, sensitivity) = memo.Workspace;
