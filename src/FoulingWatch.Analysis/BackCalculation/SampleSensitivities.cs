@@ -86,12 +86,18 @@ public sealed partial class SampleEvaluator
     private static void CleanSlopes(ICleanUModel clean, double[] m, double[] sigma, double mt, double ms, double tubeBulk,
         double shellBulk, int tubeFlow, int shellFlow, bool hotTube, Span<double> duc)
     {
-        duc[tubeFlow] = Slope(h => clean.CleanU(mt + h, ms, tubeBulk, shellBulk), sigma[tubeFlow] / 100);
-        duc[shellFlow] = Slope(h => clean.CleanU(mt, ms + h, tubeBulk, shellBulk), sigma[shellFlow] / 100);
+        var h = sigma[tubeFlow] / 100;
+        duc[tubeFlow] = h > 0 ? (clean.CleanU(mt + h, ms, tubeBulk, shellBulk) - clean.CleanU(mt - h, ms, tubeBulk, shellBulk)) / (2 * h) : 0;
+        h = sigma[shellFlow] / 100;
+        duc[shellFlow] = h > 0 ? (clean.CleanU(mt, ms + h, tubeBulk, shellBulk) - clean.CleanU(mt, ms - h, tubeBulk, shellBulk)) / (2 * h) : 0;
         var hotBulkStep = Math.Max(sigma[Measurement.HotInlet], sigma[Measurement.HotOutlet]) / 200;
         var coldBulkStep = Math.Max(sigma[Measurement.ColdInlet], sigma[Measurement.ColdOutlet]) / 200;
-        var tubeBulkSlope = Slope(h => clean.CleanU(mt, ms, tubeBulk + h, shellBulk), hotTube ? hotBulkStep : coldBulkStep);
-        var shellBulkSlope = Slope(h => clean.CleanU(mt, ms, tubeBulk, shellBulk + h), hotTube ? coldBulkStep : hotBulkStep);
+        h = hotTube ? hotBulkStep : coldBulkStep;
+        var tubeBulkSlope = h > 0
+            ? (clean.CleanU(mt, ms, tubeBulk + h, shellBulk) - clean.CleanU(mt, ms, tubeBulk - h, shellBulk)) / (2 * h) : 0;
+        h = hotTube ? coldBulkStep : hotBulkStep;
+        var shellBulkSlope = h > 0
+            ? (clean.CleanU(mt, ms, tubeBulk, shellBulk + h) - clean.CleanU(mt, ms, tubeBulk, shellBulk - h)) / (2 * h) : 0;
         var (hotBulkSlope, coldBulkSlope) = hotTube ? (tubeBulkSlope, shellBulkSlope) : (shellBulkSlope, tubeBulkSlope);
         duc[Measurement.HotInlet] = duc[Measurement.HotOutlet] = 0.5 * hotBulkSlope;
         duc[Measurement.ColdInlet] = duc[Measurement.ColdOutlet] = 0.5 * coldBulkSlope;
@@ -137,7 +143,4 @@ public sealed partial class SampleEvaluator
         }
         return (At(h) - At(-h)) / (2 * h);
     }
-
-    /// <summary>(g(h) − g(−h))/(2h); 0 for h = 0.</summary>
-    private static double Slope(Func<double, double> g, double h) => h > 0 ? (g(h) - g(-h)) / (2 * h) : 0;
 }
