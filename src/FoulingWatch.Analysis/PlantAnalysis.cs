@@ -34,9 +34,10 @@ public static class PlantAnalysis
     public static PlantResult Run(PlantConfiguration config, IProgress<(string Stage, double Fraction)>? progress = null,
         Func<ExchangerResult, ExchangerResult>? finished = null)
     {
-        var ingest = StageClock.Time("ingest", () => HistorianIngest.Run(config,
-            progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction)))));
-        return Run(config, ingest, progress, finished);
+        // No local holds the ingest result: the run below may drop its series as it goes.
+        return Run(config, StageClock.Time("ingest", () => HistorianIngest.Run(config,
+            progress is null ? null : new Progress<(string File, double Fraction)>(p => progress.Report(($"reading {Path.GetFileName(p.File)}", p.Fraction))))),
+            progress, finished);
     }
 
     /// <summary>The result with its per-sample columns released but for the status and lost duty (see
@@ -50,6 +51,10 @@ public static class PlantAnalysis
     {
         // Exchangers are independent (each seeds its own draws from its id): they run side by side, results in
         // configuration order, so a run is identical whatever the number of cores.
+        // A run that releases each exchanger's samples when it is finished also drops each aligned input series as soon as
+        // no exchanger still to finish reads it: the fleet's series shrink as the run goes instead of staying to its end.
+        var inputs = finished is null ? null : new InputSeries(config, ingest);
+        if (inputs is not null) ingest = inputs.Ingest;
         var results = new ExchangerResult[config.Exchangers.Count];
         var done = 0;
         Parallel.For(0, config.Exchangers.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
@@ -67,6 +72,7 @@ public static class PlantAnalysis
                 WhatIf = WhatIf.Rate(x, history.Columns),
             };
             results[i] = finished is null ? result : finished(result);
+            inputs?.Finished(x);
             progress?.Report(($"back-calculated, fitted and priced {x.Id}", Interlocked.Increment(ref done) / (double)config.Exchangers.Count));
         });
         var plan = StageClock.Time("plan", () => FleetPlan.Build(results.Select(r => (r.History.Exchanger, r.Economics)).ToList(),
