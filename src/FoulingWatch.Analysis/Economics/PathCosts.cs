@@ -12,6 +12,7 @@ public sealed class PathCosts
 {
     private readonly double[] _cost;   // currency, cumulative from age 0, per whole day of age
     private readonly double[] _energy; // J of lost duty, cumulative
+    private int _days;                  // the priced path's last day (the grid may hold more)
 
     public PathCosts(Func<double, double> trueRf, Func<double, double> lostDutyOfRf, double moneyPerJoule, int days) : this(days)
     {
@@ -26,13 +27,17 @@ public sealed class PathCosts
     {
         _cost = new double[days + 1];
         _energy = new double[days + 1];
+        _days = days;
     }
 
-    /// <summary>Prices the path whose true Rf at each whole day of age is <paramref name="trueRf"/> (Days + 1 values,
-    /// overwritten with the lost duty): the same numbers as the constructor taking functions.</summary>
+    /// <summary>Prices the path whose true Rf at each whole day of age is <paramref name="trueRf"/> (at most the grid's
+    /// days + 1 values; <see cref="Days"/> becomes its last day), overwritten with the lost duty: the same numbers as
+    /// the constructor taking functions over that many days.</summary>
     public void Fill(Span<double> trueRf, LostDutyCurve lostDuty, double moneyPerJoule)
     {
-        if (trueRf.Length != _cost.Length) throw new ArgumentException($"the path needs {_cost.Length} daily values", nameof(trueRf));
+        if (trueRf.Length < 2 || trueRf.Length > _cost.Length)
+            throw new ArgumentException($"the path needs 2 to {_cost.Length} daily values", nameof(trueRf));
+        _days = trueRf.Length - 1;
         for (var a = 0; a < trueRf.Length; a++) trueRf[a] = Math.Max(0, lostDuty.At(Math.Max(0, trueRf[a])));
         Accumulate(trueRf, moneyPerJoule);
     }
@@ -50,25 +55,24 @@ public sealed class PathCosts
         }
     }
 
-    public int Days => _cost.Length - 1;
+    public int Days => _days;
 
     /// <summary>Cumulative fouling cost from age 0 to age a (days), linear between whole days; held beyond the grid's end
     /// at the last day's rate.</summary>
-    public double Cost(double a) => Interpolate(_cost, a);
+    public double Cost(double a) => Interpolate(_cost, _days, a);
 
-    public double Energy(double a) => Interpolate(_energy, a);
+    public double Energy(double a) => Interpolate(_energy, _days, a);
 
     /// <summary>Cost rate per day at age a.</summary>
     public double Rate(double a)
     {
-        var i = Math.Clamp((int)a, 0, _cost.Length - 2);
+        var i = Math.Clamp((int)a, 0, _days - 1);
         return _cost[i + 1] - _cost[i];
     }
 
-    private static double Interpolate(double[] c, double a)
+    private static double Interpolate(double[] c, int last, double a)
     {
         if (a <= 0) return 0;
-        var last = c.Length - 1;
         if (a >= last) return c[last] + (c[last] - c[last - 1]) * (a - last);
         var i = (int)a;
         return c[i] + (c[i + 1] - c[i]) * (a - i);
