@@ -10,9 +10,9 @@ namespace FoulingWatch.Analysis.BackCalculation;
 /// so ∂Rf/∂x = A·(q·∂D/∂x − D·∂q/∂x)/q² + (∂U_clean/∂x)/U_clean² (GUM, JCGM 100:2008, 5.1.3: sensitivity coefficients
 /// as partial derivatives of the model). The duty's derivatives are analytic: q_h = −ṁ_h·Δh_h, so ∂q_h/∂ṁ_h = q_h/ṁ_h,
 /// ∂q_h/∂T_h,in = ṁ_h·c_p(T_h,in) and ∂q_h/∂T_h,out = −ṁ_h·c_p(T_h,out) (c_p = ∂h/∂T at constant pressure, the fluid
-/// model's own; likewise the cold side). A condensing or evaporating side, whose enthalpy change is not ∫c_p dT, and the
-/// driving force D and the clean U, which have no convenient closed form for every arrangement and clean-U model, take
-/// central differences of those parts alone with the probe steps of the whole-model differences (σᵢ/100; the bulk
+/// model's own; likewise the cold side; a condensing or evaporating side gives its vapour's and liquid's c_p outside the
+/// saturation band, 0 inside it). The driving force D and the clean U, which have no convenient closed form for every
+/// arrangement and clean-U model, take central differences of those parts alone with the probe steps of the whole-model differences (σᵢ/100; the bulk
 /// temperature moves by half a terminal temperature's step). The whole-model central differences
 /// (<see cref="SampleEvaluator.FoulingResistanceSigmaByProbes"/>) evaluate every part twelve times, the fluid properties
 /// eight; this evaluates no fluid beyond the sample's own states. The two agree within 3·10⁻⁸ of σ on every
@@ -28,10 +28,8 @@ public sealed partial class SampleEvaluator
         foreach (var v in m)
             if (!(v > 0) || double.IsInfinity(v)) return false;
         if (Duties(m, pHot, pCold, out _, memo) is not var (qh, qc) || !(qh > 0) || !(qc > 0)) return false;
-        if (!EndSlopes(_x.Hot.Fluid, m[Measurement.HotInlet], m[Measurement.HotOutlet], pHot,
-                sigma[Measurement.HotInlet] / 100, sigma[Measurement.HotOutlet] / 100, out var hotIn, out var hotOut)) return false;
-        if (!EndSlopes(_x.Cold.Fluid, m[Measurement.ColdInlet], m[Measurement.ColdOutlet], pCold,
-                sigma[Measurement.ColdInlet] / 100, sigma[Measurement.ColdOutlet] / 100, out var coldIn, out var coldOut)) return false;
+        if (!EndSlopes(_x.Hot.Fluid, m[Measurement.HotInlet], m[Measurement.HotOutlet], pHot, out var hotIn, out var hotOut)) return false;
+        if (!EndSlopes(_x.Cold.Fluid, m[Measurement.ColdInlet], m[Measurement.ColdOutlet], pCold, out var coldIn, out var coldOut)) return false;
         Span<double> dqh = stackalloc double[Measurement.Count];
         Span<double> dqc = stackalloc double[Measurement.Count];
         dqh.Clear();
@@ -103,25 +101,11 @@ public sealed partial class SampleEvaluator
         duc[Measurement.ColdInlet] = duc[Measurement.ColdOutlet] = 0.5 * coldBulkSlope;
     }
 
-    /// <summary>∂Δh/∂T_in and ∂Δh/∂T_out of Δh = h(T_out) − h(T_in): −c_p(T_in) and c_p(T_out) for a sensible fluid;
-    /// central differences of the enthalpy change (steps hIn, hOut) for a phase change.</summary>
-    private static bool EndSlopes(IFluidModel fluid, double tIn, double tOut, double p, double hIn, double hOut,
-        out double slopeIn, out double slopeOut)
+    /// <summary>∂Δh/∂T_in and ∂Δh/∂T_out of Δh = h(T_out) − h(T_in), from the fluid model
+    /// (<see cref="IFluidModel.EnthalpyChangeSlopes"/>).</summary>
+    private static bool EndSlopes(IFluidModel fluid, double tIn, double tOut, double p, out double slopeIn, out double slopeOut)
     {
-        var pressure = new Pressure(p);
-        if (!fluid.IsPhaseChange)
-        {
-            slopeIn = -fluid.SpecificHeat(Temperature.FromKelvin(tIn), pressure);
-            slopeOut = fluid.SpecificHeat(Temperature.FromKelvin(tOut), pressure);
-            return double.IsFinite(slopeIn) && double.IsFinite(slopeOut);
-        }
-        slopeIn = slopeOut = 0;
-        double Change(double from, double to) =>
-            fluid.WhyNotEvaluable(Temperature.FromKelvin(from), Temperature.FromKelvin(to), pressure) is null
-                ? fluid.EnthalpyChange(Temperature.FromKelvin(from), Temperature.FromKelvin(to), pressure)
-                : double.NaN;
-        if (hIn > 0) slopeIn = (Change(tIn + hIn, tOut) - Change(tIn - hIn, tOut)) / (2 * hIn);
-        if (hOut > 0) slopeOut = (Change(tIn, tOut + hOut) - Change(tIn, tOut - hOut)) / (2 * hOut);
+        (slopeIn, slopeOut) = fluid.EnthalpyChangeSlopes(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), new Pressure(p));
         return double.IsFinite(slopeIn) && double.IsFinite(slopeOut);
     }
 

@@ -35,6 +35,11 @@ public interface IFluidModel
     double EnthalpyChange(Temperature from, Temperature to, Pressure pressure) =>
         SpecificEnthalpy(to, pressure) - SpecificEnthalpy(from, pressure);
 
+    /// <summary>∂Δh/∂T_from and ∂Δh/∂T_to in J/(kg·K) of <see cref="EnthalpyChange"/> at constant pressure: −c_p(from)
+    /// and c_p(to), c_p being ∂h/∂T of the model's own enthalpy (a model whose change is not ∫c_p dT says so itself).</summary>
+    (double From, double To) EnthalpyChangeSlopes(Temperature from, Temperature to, Pressure pressure) =>
+        (-SpecificHeat(from, pressure), SpecificHeat(to, pressure));
+
     /// <summary>Why the model cannot evaluate a stream between these temperatures, or null when it can.</summary>
     string? WhyNotEvaluable(Temperature from, Temperature to, Pressure pressure) =>
         Validity.Contains(from) && Validity.Contains(to) ? null

@@ -169,6 +169,18 @@ public sealed class SteamPhaseChange : IFluidModel
             : VapourEnthalpy(to) - LiquidEnthalpy(from);
     }
 
+    /// <summary>Slopes of <see cref="EnthalpyChange"/>: the vapour's c_p (IAPWS-IF97 region 2) where its temperature is
+    /// above the saturation band, the liquid's (region 1) where below, and 0 inside the band, where the state is taken as
+    /// saturated whatever the reading.</summary>
+    public (double From, double To) EnthalpyChangeSlopes(Temperature from, Temperature to, Pressure pressure)
+    {
+        var p = Pressure.Megapascals;
+        var ts = SaturationTemperature.Kelvin;
+        double Vapour(Temperature t) => t.Kelvin > ts + SaturationBand ? IapwsIf97.Region2(t.Kelvin, p).SpecificHeat : 0;
+        double Liquid(Temperature t) => t.Kelvin < ts - SaturationBand ? IapwsIf97.Region1(t.Kelvin, p).SpecificHeat : 0;
+        return Direction == PhaseChangeDirection.Condensing ? (-Vapour(from), Liquid(to)) : (-Liquid(from), Vapour(to));
+    }
+
     /// <summary>Specific enthalpy of the single-phase state at a temperature off saturation; at saturation the phase is ambiguous.</summary>
     public double SpecificEnthalpy(Temperature temperature, Pressure pressure) =>
         temperature.Kelvin > SaturationTemperature.Kelvin ? VapourEnthalpy(temperature) : LiquidEnthalpy(temperature);

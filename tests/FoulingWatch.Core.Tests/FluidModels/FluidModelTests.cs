@@ -152,4 +152,38 @@ public class FluidModelTests
         var ts = IapwsIf97.SaturationTemperature(0.3);
         Assert.Equal(IapwsIf97.LatentHeat(0.3), m.EnthalpyChange(Temperature.FromKelvin(ts), Temperature.FromKelvin(ts), p), 1e-6);
     }
+
+    // Analytic (the definition c_p = (∂h/∂T)_p): the slopes of each model's enthalpy change, which the Rf uncertainty
+    // uses as its duty derivatives, equal central differences (step 1 mK) of the model's own enthalpy change within
+    // 1e-6, for every sensible model and for condensing steam and evaporating water outside the saturation band.
+    [Fact]
+    public void Enthalpy_change_slopes_equal_central_differences_of_the_enthalpy_change()
+    {
+        var bar5 = new Pressure(5e5);
+        (IFluidModel Model, double From, double To, Pressure P)[] cases =
+        [
+            (new ConstantSpecificHeat(2100, Wide), 80, 30, Atm),
+            (new PolynomialSpecificHeat([1800, 3.2, -0.004], 273.15, Wide), 140, 60, Atm),
+            (new TabulatedSpecificHeat([(300, 2000), (400, 2200), (500, 2600)]), 215, 95, Atm),
+            (new KeslerLeePetroleumLiquid(0.87, 11.9), 260, 150, Atm),
+            (new IapwsWater(), 20, 75, bar5),
+            (new SteamPhaseChange(new Pressure(4e5), PhaseChangeDirection.Condensing), 175, 130, bar5),
+            (new SteamPhaseChange(new Pressure(2e5), PhaseChangeDirection.Evaporating), 95, 160, bar5),
+        ];
+        const double h = 1e-3;
+        foreach (var (model, from, to, p) in cases)
+        {
+            double Change(double f, double t) => model.EnthalpyChange(C(f), C(t), p);
+            var (slopeFrom, slopeTo) = model.EnthalpyChangeSlopes(C(from), C(to), p);
+            var numericFrom = (Change(from + h, to) - Change(from - h, to)) / (2 * h);
+            var numericTo = (Change(from, to + h) - Change(from, to - h)) / (2 * h);
+            Assert.True(Math.Abs(slopeFrom) > 500 && Math.Abs(slopeTo) > 500, $"{model.Description}: slopes {slopeFrom}, {slopeTo}");
+            Assert.Equal(numericFrom, slopeFrom, Math.Abs(numericFrom) * 1e-6);
+            Assert.Equal(numericTo, slopeTo, Math.Abs(numericTo) * 1e-6);
+        }
+        // inside the saturation band the state is taken as saturated: the enthalpy does not move with the reading
+        var condensing = new SteamPhaseChange(new Pressure(4e5), PhaseChangeDirection.Condensing);
+        var ts = condensing.SaturationTemperature.Celsius;
+        Assert.Equal((0.0, 0.0), condensing.EnthalpyChangeSlopes(C(ts + 0.2), C(ts - 0.2), bar5));
+    }
 }
