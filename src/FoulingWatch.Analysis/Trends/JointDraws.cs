@@ -111,14 +111,23 @@ public sealed class JointDraws
     public double ValueQuantile(double t, double q) => ValueQuantiles(t, q, q).Low;
 
     /// <summary>Two quantiles (low, high) of the true Rf over the draws at t, from one sort (a band's two edges).</summary>
+    /// <remarks>The two order statistics by selection (the values <see cref="Quantile"/> takes from the sorted draws); a
+    /// sort where a draw is NaN.</remarks>
     public (double Low, double High) ValueQuantiles(double t, double low, double high)
     {
         var v = new double[Length];
-        for (var j = 0; j < Length; j++) v[j] = TrueValue(j, t);
-        Array.Sort(v);
-        return (Quantile(v, low), Quantile(v, high));
+        var nan = false;
+        for (var j = 0; j < Length; j++) nan |= double.IsNaN(v[j] = TrueValue(j, t));
+        if (nan || v.Length == 0)
+        {
+            Array.Sort(v);
+            return (Quantile(v, low), Quantile(v, high));
+        }
+        return (Sorting.Select(v, QuantileIndex(v.Length, low)), Sorting.Select(v, QuantileIndex(v.Length, high)));
     }
 
+    private static int QuantileIndex(int n, double q) => (int)Math.Clamp(Math.Round(q * (n - 1)), 0, n - 1);
+
     public static double Quantile(double[] sorted, double q) =>
-        sorted.Length == 0 ? double.NaN : sorted[(int)Math.Clamp(Math.Round(q * (sorted.Length - 1)), 0, sorted.Length - 1)];
+        sorted.Length == 0 ? double.NaN : sorted[QuantileIndex(sorted.Length, q)];
 }

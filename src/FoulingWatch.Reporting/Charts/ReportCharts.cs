@@ -88,7 +88,8 @@ public static class ReportCharts
     public static IReadOnlyList<Chart> ForExchanger(ExchangerResult x)
     {
         var id = x.History.Exchanger.Id;
-        return new[] { FoulingChart(x), UChart(x), DutyChart(x), CostChart(x) }.Select(c => c with { Name = $"{Results.ResultWriter.SafeName(id)}-{c.Name}" }).ToList();
+        var okDays = OkDays(x);
+        return new[] { FoulingChart(x), UChart(x, okDays), DutyChart(x, okDays), CostChart(x) }.Select(c => c with { Name = $"{Results.ResultWriter.SafeName(id)}-{c.Name}" }).ToList();
     }
 
     /// <summary>Rf: daily medians with ±σ band, the chosen fit of each cycle, the forecast band to the limit, cleanings marked.</summary>
@@ -195,16 +196,28 @@ public static class ReportCharts
         }
     }
 
-    private static (double[] X, double[] Y) DailyMedian(ExchangerResult x, Func<SampleColumns, double[]> pick, double scale)
+    /// <summary>The usable (ok) samples grouped by UTC day: the groups every daily-median line of an exchanger filters.</summary>
+    private static List<(DateTime Day, List<int> Samples)> OkDays(ExchangerResult x)
     {
         var c = x.History.Columns;
-        var column = pick(c);
+        return c.UtcDays(k => c.Status[k] == SampleStatus.Ok).ToList();
+    }
+
+    /// <summary>Daily medians of a column over the usable samples where it is finite (days without one left out).</summary>
+    private static (double[] X, double[] Y) DailyMedian(ExchangerResult x, Func<SampleColumns, double[]> pick, double scale,
+        List<(DateTime Day, List<int> Samples)> okDays)
+    {
+        var column = pick(x.History.Columns);
         var xs = new List<double>();
         var ys = new List<double>();
-        foreach (var (day, samples) in c.UtcDays(k => c.Status[k] == SampleStatus.Ok && double.IsFinite(column[k])))
+        foreach (var (day, samples) in okDays)
         {
-            var values = new double[samples.Count];
-            for (var i = 0; i < values.Length; i++) values[i] = column[samples[i]] * scale;
+            var finite = 0;
+            foreach (var k in samples) if (double.IsFinite(column[k])) finite++;
+            if (finite == 0) continue;
+            var values = new double[finite];
+            var i = 0;
+            foreach (var k in samples) if (double.IsFinite(column[k])) values[i++] = column[k] * scale;
             xs.Add(day.AddHours(12).ToOADate());
             ys.Add(Median(values));
         }
@@ -230,22 +243,26 @@ public static class ReportCharts
         if (dashed) line.LinePattern = LinePattern.Dashed;
     }
 
-    public static Chart UChart(ExchangerResult x)
+    public static Chart UChart(ExchangerResult x) => UChart(x, OkDays(x));
+
+    private static Chart UChart(ExchangerResult x, List<(DateTime Day, List<int> Samples)> okDays)
     {
         var plot = NewPlot($"{x.History.Exchanger.Id}: actual and clean U at today's flows", "U (W/m²·K)");
-        var (xa, ya) = DailyMedian(x, c => c.UActual, 1);
-        var (xc, yc) = DailyMedian(x, c => c.UClean, 1);
+        var (xa, ya) = DailyMedian(x, c => c.UActual, 1, okDays);
+        var (xc, yc) = DailyMedian(x, c => c.UClean, 1, okDays);
         Line(plot, xa, ya, Blue, "U actual (daily median)");
         Line(plot, xc, yc, Green, "U clean at the same flows", dashed: true);
         plot.ShowLegend(Alignment.LowerLeft);
         return Render(plot, "u", "U actual against clean U");
     }
 
-    public static Chart DutyChart(ExchangerResult x)
+    public static Chart DutyChart(ExchangerResult x) => DutyChart(x, OkDays(x));
+
+    private static Chart DutyChart(ExchangerResult x, List<(DateTime Day, List<int> Samples)> okDays)
     {
         var plot = NewPlot($"{x.History.Exchanger.Id}: duty and lost duty", "duty (kW)");
-        var (xd, yd) = DailyMedian(x, c => c.Duty, 1e-3);
-        var (xl, yl) = DailyMedian(x, c => c.LostDuty, 1e-3);
+        var (xd, yd) = DailyMedian(x, c => c.Duty, 1e-3, okDays);
+        var (xl, yl) = DailyMedian(x, c => c.LostDuty, 1e-3, okDays);
         Line(plot, xd, yd, Blue, "duty (daily median)");
         Line(plot, xl, yl, Vermillion, "lost duty against clean");
         plot.ShowLegend(Alignment.UpperLeft);
