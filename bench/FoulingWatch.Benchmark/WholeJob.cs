@@ -32,12 +32,14 @@ public static class WholeJob
         Console.WriteLine(string.Create(Inv, $"  analyze / floor: median of the turns' ratios {Median(ratios):0.00}x ({string.Join(" ", ratios.Select(r => r.ToString("0.00", Inv)))})"));
         string[] memory = ["allocated_mb", "gc_pause_s", "collections_gen0", "collections_gen1", "collections_gen2"];
         if (runs[0].ContainsKey("allocated_mb"))
-            Console.WriteLine(string.Create(Inv, $"  analyze memory (median): allocated {Median(runs.Select(d => d["allocated_mb"])):0} MB, " +
+            Console.WriteLine(string.Create(Inv,
+                $"  analyze memory (median): allocated {Median(runs.Select(d => d["allocated_mb"])):0} MB, " +
                 $"GC pauses {Median(runs.Select(d => d["gc_pause_s"])):0.00} s, collections by generation " +
                 $"{Median(runs.Select(d => d["collections_gen0"])):0}/{Median(runs.Select(d => d["collections_gen1"])):0}/" +
                 $"{Median(runs.Select(d => d["collections_gen2"])):0}"));
         Console.WriteLine("  analyze stages (seconds summed over threads, median):");
-        foreach (var stage in runs[0].Keys.Where(k => k is not ("wall_s" or "cpu_s" or "peak_rss_mb") && !memory.Contains(k)))
+        var stages = runs[0].Keys.Where(k => k is not ("wall_s" or "cpu_s" or "peak_rss_mb") && !memory.Contains(k));
+        foreach (var stage in stages)
             Console.WriteLine(string.Create(Inv, $"    {stage,-24} {Median(runs.Select(d => d.GetValueOrDefault(stage))):0.000}"));
     }
 

@@ -117,7 +117,8 @@ public static class BackCalculator
         }
 
         // Clean-U values straight into the columns, from two buffers per worker: no record per sample.
-        Parallel.For(0, n, () => (Used: new double[Measurement.Count], Measured: new double[Measurement.Count], Memo: new DutyMemo()),
+        Parallel.For(0, n,
+            () => (Used: new double[Measurement.Count], Measured: new double[Measurement.Count], Memo: new DutyMemo()),
             (k, _, buffers) =>
             {
                 Complete(k, buffers.Used, buffers.Measured, buffers.Memo);

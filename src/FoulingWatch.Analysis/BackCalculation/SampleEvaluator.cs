@@ -253,17 +253,21 @@ public sealed partial class SampleEvaluator
         var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var (tubeBulk, shellBulk) = BulkTemperatures(m);
-        var uc = memo is null ? clean.CleanU(tube, shell, tubeBulk, shellBulk) : memo.Clean.CleanU(clean, tube, shell, tubeBulk, shellBulk);
+        var uc = memo is null
+            ? clean.CleanU(tube, shell, tubeBulk, shellBulk)
+            : memo.Clean.CleanU(clean, tube, shell, tubeBulk, shellBulk);
         return 1 / u - 1 / uc;
     }
 
     /// <summary>LMTD and F (capped at 1; 1 with a phase change) of the terminal temperatures, NaN when undefined.</summary>
     private (double Lmtd, double F) DrivingForce(double thi, double tho, double tci, double tco)
     {
-        if (!Core.Exchangers.Lmtd.TryFromTerminalDifferences(thi - tco, tho - tci, out var lmtd)) return (double.NaN, double.NaN);
+        if (!Core.Exchangers.Lmtd.TryFromTerminalDifferences(thi - tco, tho - tci, out var lmtd))
+            return (double.NaN, double.NaN);
         if (_x.Hot.Fluid.IsPhaseChange || _x.Cold.Fluid.IsPhaseChange) return (lmtd, 1.0);
         var pr = TemperatureEffectiveness.FromTemperatures(T(thi), T(tho), T(tci), T(tco));
-        if (pr is null || !_x.Arrangement.TryLmtdCorrectionFactor(pr.Value.P, pr.Value.R, out var f)) return (double.NaN, double.NaN);
+        if (pr is null || !_x.Arrangement.TryLmtdCorrectionFactor(pr.Value.P, pr.Value.R, out var f))
+            return (double.NaN, double.NaN);
         return (lmtd, Math.Min(f, 1.0));
     }
 
