@@ -103,9 +103,18 @@ public sealed partial class SampleEvaluator
 
     /// <summary>∂Δh/∂T_in and ∂Δh/∂T_out of Δh = h(T_out) − h(T_in), from the fluid model
     /// (<see cref="IFluidModel.EnthalpyChangeSlopes"/>).</summary>
+    /// <remarks>The temperatures passed the model's validity check with the duties; a model that still refuses one (a
+    /// state on a region boundary) leaves the sample's σ undefined rather than stopping the run.</remarks>
     private static bool EndSlopes(IFluidModel fluid, double tIn, double tOut, double p, out double slopeIn, out double slopeOut)
     {
-        (slopeIn, slopeOut) = fluid.EnthalpyChangeSlopes(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), new Pressure(p));
+        try
+        {
+            (slopeIn, slopeOut) = fluid.EnthalpyChangeSlopes(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), new Pressure(p));
+        }
+        catch (QuantityOutOfRangeException) // a property range or a quantity out of range
+        {
+            (slopeIn, slopeOut) = (double.NaN, double.NaN);
+        }
         return double.IsFinite(slopeIn) && double.IsFinite(slopeOut);
     }
 
