@@ -12,7 +12,7 @@ public static class AnalyzeCommand
     public static int Run(string configPath, string outDirectory, bool json, bool quiet, TextWriter output, TextWriter error,
         DateTimeOffset? auditFrom = null, DateTimeOffset? auditTo = null)
     {
-        var config = PlantConfigurationReader.Load(configPath);
+        var config = StageClock.Time("configuration", () => PlantConfigurationReader.Load(configPath));
         var progress = ProgressOn(quiet || json, error);
         var (result, written) = Streamed(config, outDirectory, progress);
         if (auditFrom is not null || auditTo is not null)
