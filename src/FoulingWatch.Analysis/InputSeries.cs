@@ -33,5 +33,6 @@ public sealed class InputSeries
                 if (--_readers[tag] == 0) _series.TryRemove(tag, out _);
     }
 
-    private static IEnumerable<string> TagsOf(ExchangerConfiguration x) => x.Tags().Select(t => t.Tag).Distinct(StringComparer.Ordinal);
+    private static IEnumerable<string> TagsOf(ExchangerConfiguration x) =>
+        x.Tags().Select(t => t.Tag).Distinct(StringComparer.Ordinal);
 }

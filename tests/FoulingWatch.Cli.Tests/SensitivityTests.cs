@@ -25,7 +25,10 @@ public sealed class SensitivityTests(ITestOutputHelper output)
         using var plant = new SamplePlantCopy(windowStart: null);
         var config = PlantConfigurationReader.Load(plant.ConfigPath);
         var ingest = HistorianIngest.Run(config);
-        var settings = OperatingStateSettings.Default with { FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter };
+        var settings = OperatingStateSettings.Default with
+        {
+            FrozenAfter = config.Data.FrozenAfter ?? DataSettings.DefaultFrozenAfter,
+        };
         var total = 0;
         foreach (var x in config.Exchangers)
         {

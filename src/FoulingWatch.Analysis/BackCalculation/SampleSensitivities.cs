@@ -12,10 +12,10 @@ namespace FoulingWatch.Analysis.BackCalculation;
 /// ∂q_h/∂T_h,in = ṁ_h·c_p(T_h,in) and ∂q_h/∂T_h,out = −ṁ_h·c_p(T_h,out) (c_p = ∂h/∂T at constant pressure, the fluid
 /// model's own; likewise the cold side; a condensing or evaporating side gives its vapour's and liquid's c_p outside the
 /// saturation band, 0 inside it). The driving force D and the clean U, which have no convenient closed form for every
-/// arrangement and clean-U model, take central differences of those parts alone with the probe steps of the whole-model differences (σᵢ/100; the bulk
-/// temperature moves by half a terminal temperature's step). The whole-model central differences
-/// (<see cref="SampleEvaluator.FoulingResistanceSigmaByProbes"/>) evaluate every part twelve times, the fluid properties
-/// eight; this evaluates no fluid beyond the sample's own states. The two agree within 3·10⁻⁸ of σ on every
+/// arrangement and clean-U model, take central differences of those parts alone with the probe steps of the whole-model
+/// differences (σᵢ/100; the bulk temperature moves by half a terminal temperature's step). The whole-model central
+/// differences (<see cref="SampleEvaluator.FoulingResistanceSigmaByProbes"/>) evaluate every part twelve times, the fluid
+/// properties eight; this evaluates no fluid beyond the sample's own states. The two agree within 3·10⁻⁸ of σ on every
 /// usable interval of the sample plant (tested to 10⁻⁶).
 /// </remarks>
 public sealed partial class SampleEvaluator
@@ -28,8 +28,10 @@ public sealed partial class SampleEvaluator
         foreach (var v in m)
             if (!(v > 0) || double.IsInfinity(v)) return false;
         if (Duties(m, pHot, pCold, out _, memo) is not var (qh, qc) || !(qh > 0) || !(qc > 0)) return false;
-        if (!EndSlopes(_x.Hot.Fluid, m[Measurement.HotInlet], m[Measurement.HotOutlet], pHot, out var hotIn, out var hotOut)) return false;
-        if (!EndSlopes(_x.Cold.Fluid, m[Measurement.ColdInlet], m[Measurement.ColdOutlet], pCold, out var coldIn, out var coldOut)) return false;
+        if (!EndSlopes(_x.Hot.Fluid, m[Measurement.HotInlet], m[Measurement.HotOutlet], pHot, out var hotIn, out var hotOut)
+            || !EndSlopes(_x.Cold.Fluid, m[Measurement.ColdInlet], m[Measurement.ColdOutlet], pCold, out var coldIn,
+                out var coldOut))
+            return false;
         Span<double> dqh = stackalloc double[Measurement.Count];
         Span<double> dqc = stackalloc double[Measurement.Count];
         dqh.Clear();
@@ -60,7 +62,9 @@ public sealed partial class SampleEvaluator
         }
 
         var hotTube = _x.Hot.Side == ExchangerSide.Tube;
-        int tubeFlow = hotTube ? Measurement.HotFlow : Measurement.ColdFlow, shellFlow = hotTube ? Measurement.ColdFlow : Measurement.HotFlow;
+        var (tubeFlow, shellFlow) = hotTube
+            ? (Measurement.HotFlow, Measurement.ColdFlow)
+            : (Measurement.ColdFlow, Measurement.HotFlow);
         var (tubeBulk, shellBulk) = BulkTemperatures(m);
         double mt = m[tubeFlow], ms = m[shellFlow];
         var uc = clean.CleanU(mt, ms, tubeBulk, shellBulk);
@@ -68,12 +72,12 @@ public sealed partial class SampleEvaluator
         Span<double> duc = stackalloc double[Measurement.Count];
         duc.Clear();
         // An infinite clean U (σ of 1/U alone, as the calibration asks) contributes nothing: 1/U_clean is 0 around it.
-        if (double.IsPositiveInfinity(uc)) uc = double.NaN;
-        else CleanSlopes(clean, m, sigma, mt, ms, tubeBulk, shellBulk, tubeFlow, shellFlow, hotTube, duc);
+        var cleanTerm = !double.IsPositiveInfinity(uc);
+        if (cleanTerm) CleanSlopes(clean, sigma, mt, ms, tubeBulk, shellBulk, tubeFlow, shellFlow, hotTube, duc);
         for (var i = 0; i < Measurement.Count; i++)
         {
             var dq = _x.DutyBasis switch { DutyBasis.Hot => dqh[i], DutyBasis.Cold => dqc[i], _ => 0.5 * (dqh[i] + dqc[i]) };
-            c[i] = _x.Area * (q * dd[i] - d * dq) / (q * q) + (double.IsNaN(uc) ? 0 : duc[i] / (uc * uc));
+            c[i] = _x.Area * (q * dd[i] - d * dq) / (q * q) + (cleanTerm ? duc[i] / (uc * uc) : 0);
             if (!double.IsFinite(c[i])) return false;
         }
         return true;
@@ -81,13 +85,15 @@ public sealed partial class SampleEvaluator
 
     /// <summary>∂U_clean/∂xᵢ by central differences in each side's flow and bulk temperature (a terminal temperature
     /// moves its side's bulk temperature by half its own change).</summary>
-    private static void CleanSlopes(ICleanUModel clean, double[] m, double[] sigma, double mt, double ms, double tubeBulk,
+    private static void CleanSlopes(ICleanUModel clean, double[] sigma, double mt, double ms, double tubeBulk,
         double shellBulk, int tubeFlow, int shellFlow, bool hotTube, Span<double> duc)
     {
         var h = sigma[tubeFlow] / 100;
-        duc[tubeFlow] = h > 0 ? (clean.CleanU(mt + h, ms, tubeBulk, shellBulk) - clean.CleanU(mt - h, ms, tubeBulk, shellBulk)) / (2 * h) : 0;
+        duc[tubeFlow] = h > 0
+            ? (clean.CleanU(mt + h, ms, tubeBulk, shellBulk) - clean.CleanU(mt - h, ms, tubeBulk, shellBulk)) / (2 * h) : 0;
         h = sigma[shellFlow] / 100;
-        duc[shellFlow] = h > 0 ? (clean.CleanU(mt, ms + h, tubeBulk, shellBulk) - clean.CleanU(mt, ms - h, tubeBulk, shellBulk)) / (2 * h) : 0;
+        duc[shellFlow] = h > 0
+            ? (clean.CleanU(mt, ms + h, tubeBulk, shellBulk) - clean.CleanU(mt, ms - h, tubeBulk, shellBulk)) / (2 * h) : 0;
         var hotBulkStep = Math.Max(sigma[Measurement.HotInlet], sigma[Measurement.HotOutlet]) / 200;
         var coldBulkStep = Math.Max(sigma[Measurement.ColdInlet], sigma[Measurement.ColdOutlet]) / 200;
         h = hotTube ? hotBulkStep : coldBulkStep;
@@ -109,7 +115,8 @@ public sealed partial class SampleEvaluator
     {
         try
         {
-            (slopeIn, slopeOut) = fluid.EnthalpyChangeSlopes(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), new Pressure(p));
+            (slopeIn, slopeOut) =
+                fluid.EnthalpyChangeSlopes(Temperature.FromKelvin(tIn), Temperature.FromKelvin(tOut), new Pressure(p));
         }
         catch (QuantityOutOfRangeException) // a property range or a quantity out of range
         {

@@ -88,7 +88,8 @@ public sealed class Whitening
         }
     }
 
-    /// <summary><see cref="ApplyInPlace(Span{double}, double[], int, int)"/> on the values and on each column of the row-major n × k Jacobian, in one pass:
+    /// <summary><see cref="ApplyInPlace(Span{double}, double[], int, int)"/> on the values and on each column of the
+    /// row-major n × k Jacobian, in one pass:
     /// the k + 1 filters are independent, so they run side by side instead of one after another (the same arithmetic
     /// for each; a filter's steps depend on each other, which makes one filter at a time wait on every step).</summary>
     public void ApplyInPlace(Span<double> values, Span<double> jacobian, int k, double[] weights)

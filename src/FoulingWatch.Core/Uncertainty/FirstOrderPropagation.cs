@@ -30,7 +30,8 @@ public static class FirstOrderPropagation
         double[,]? correlation = null) where TFunction : IFunction
     {
         var n = x.Length;
-        if (u.Length != n || probe.Length != n || c.Length != n) throw new ArgumentException("x, u and the buffers differ in length");
+        if (u.Length != n || probe.Length != n || c.Length != n)
+            throw new ArgumentException("x, u and the buffers differ in length");
         Array.Copy(x, probe, n);
         for (var i = 0; i < n; i++)
         {
