@@ -18,42 +18,6 @@ public interface ICleanUModel
     double InverseSigma(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN);
 }
 
-/// <summary>A clean-U model whose 1/U is a tube term, a shell term and a constant: U = Combine(TubeTerm, ShellTerm),
-/// each term depending on its own side's flow and bulk temperature only. The uncertainty probes move one side at a time,
-/// so the other side's term is remembered (<see cref="CleanUMemo"/>): the same values, half the film evaluations.</summary>
-public interface ISeparableCleanU : ICleanUModel
-{
-    double TubeTerm(double flow, double bulk);
-    double ShellTerm(double flow, double bulk);
-    double Combine(double tubeTerm, double shellTerm);
-}
-
-/// <summary>The sample's own side terms (kept by every probe of the other side) and the last ones, per side.</summary>
-public sealed class CleanUMemo
-{
-    private readonly double[] _tube = [double.NaN, 0, 0, double.NaN, 0, 0], _shell = [double.NaN, 0, 0, double.NaN, 0, 0];
-
-    public double CleanU(ICleanUModel model, double tubeFlow, double shellFlow, double tubeBulk, double shellBulk)
-    {
-        if (model is not ISeparableCleanU separable) return model.CleanU(tubeFlow, shellFlow, tubeBulk, shellBulk);
-        var t = Term(_tube, tubeFlow, tubeBulk, separable, tube: true);
-        var s = Term(_shell, shellFlow, shellBulk, separable, tube: false);
-        return separable.Combine(t, s);
-    }
-
-    public void Clear() => (_tube[0], _tube[3], _shell[0], _shell[3]) = (double.NaN, double.NaN, double.NaN, double.NaN);
-
-    private static double Term(double[] slots, double flow, double bulk, ISeparableCleanU model, bool tube)
-    {
-        for (var i = 0; i < 6; i += 3)
-            if (flow.Equals(slots[i]) && bulk.Equals(slots[i + 1])) return slots[i + 2];
-        var value = tube ? model.TubeTerm(flow, bulk) : model.ShellTerm(flow, bulk);
-        var at = double.IsNaN(slots[0]) ? 0 : 3;
-        (slots[at], slots[at + 1], slots[at + 2]) = (flow, bulk, value);
-        return value;
-    }
-}
-
 /// <summary>How a forced-convection film coefficient moves with the fluid's properties at a fixed mass flow.</summary>
 /// <remarks>
 /// From Nu = C·Reⁿ·Pr^0.4 (Dittus–Boelter, heating; the same exponent form as the flow scaling):
@@ -112,7 +76,7 @@ public sealed class FilmPropertyScaling
 /// condensing film coefficients vary only weakly with condensate load). Default split 50/50 when the datasheet
 /// gives no film coefficients.
 /// </remarks>
-public sealed class DatasheetCleanU : ISeparableCleanU
+public sealed class DatasheetCleanU : ICleanUModel
 {
     private readonly DatasheetCleanReference _r;
     private readonly double _rTube, _rShell, _nTube, _nShell;
@@ -163,16 +127,12 @@ public sealed class DatasheetCleanU : ISeparableCleanU
                + (1 - share) * film * Math.Pow(_r.DesignShellFlow / shellFlow, nShell) * fs + _r.WallResistance;
     }
 
-    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
-        Combine(TubeTerm(tubeFlow, tubeBulk), ShellTerm(shellFlow, shellBulk));
-
-    public double TubeTerm(double flow, double bulk) =>
-        _rTube * Math.Pow(_r.DesignTubeFlow / flow, _nTube) * (_tubeScaling?.InverseFactor(bulk) ?? 1);
-
-    public double ShellTerm(double flow, double bulk) =>
-        _rShell * Math.Pow(_r.DesignShellFlow / flow, _nShell) * (_shellScaling?.InverseFactor(bulk) ?? 1);
-
-    public double Combine(double tubeTerm, double shellTerm) => 1 / (tubeTerm + shellTerm + _r.WallResistance);
+    public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN)
+    {
+        var (ft, fs) = Factors(tubeBulk, shellBulk);
+        return 1 / (_rTube * Math.Pow(_r.DesignTubeFlow / tubeFlow, _nTube) * ft
+                    + _rShell * Math.Pow(_r.DesignShellFlow / shellFlow, _nShell) * fs + _r.WallResistance);
+    }
 }
 
 /// <summary>Clean U from a Wilson-plot fit: 1/U = a + b·ṁ_t^−n_t + c·ṁ_s^−n_s (b or c may be zero when a side did not vary).</summary>
@@ -180,20 +140,18 @@ public sealed class DatasheetCleanU : ISeparableCleanU
 /// <param name="scalings">With a property-corrected baseline, each side's film term times its fluid's property factor at
 /// the bulk temperature (<see cref="FilmPropertyScaling.InverseFactor"/>); null sides are not corrected.</param>
 public sealed class WilsonPlotCleanU(double a, double b, double c, double nTube, double nShell, string description,
-    double[,]? covariance = null, (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default) : ISeparableCleanU
+    double[,]? covariance = null, (FilmPropertyScaling? Tube, FilmPropertyScaling? Shell) scalings = default) : ICleanUModel
 {
     public double A { get; } = a;
     public double B { get; } = b;
     public double C { get; } = c;
     public string Description { get; } = description;
 
-    /// <summary>ṁ_t^−n_t (times the property factor when corrected).</summary>
-    public double TubeTerm(double flow, double bulk) => Math.Pow(flow, -nTube) * (scalings.Tube?.InverseFactor(bulk) ?? 1);
-    public double ShellTerm(double flow, double bulk) => Math.Pow(flow, -nShell) * (scalings.Shell?.InverseFactor(bulk) ?? 1);
-    public double Combine(double tubeTerm, double shellTerm) => 1 / (A + B * tubeTerm + C * shellTerm);
+    private double TubeTerm(double flow, double bulk) => Math.Pow(flow, -nTube) * (scalings.Tube?.InverseFactor(bulk) ?? 1);
+    private double ShellTerm(double flow, double bulk) => Math.Pow(flow, -nShell) * (scalings.Shell?.InverseFactor(bulk) ?? 1);
 
     public double CleanU(double tubeFlow, double shellFlow, double tubeBulk = double.NaN, double shellBulk = double.NaN) =>
-        Combine(TubeTerm(tubeFlow, tubeBulk), ShellTerm(shellFlow, shellBulk));
+        1 / (A + B * TubeTerm(tubeFlow, tubeBulk) + C * ShellTerm(shellFlow, shellBulk));
 
     /// <summary>u(1/U_c) = √(gᵀ·Cov·g) with g = (1, ṁ_t^−n_t, ṁ_s^−n_s) (times the property factors when corrected): the
     /// fit's parameter covariance at these flows.</summary>

@@ -241,22 +241,14 @@ public sealed partial class SampleEvaluator
         if (!(qh > 0) || !(qc > 0)) return double.NaN;
         var q = _x.DutyBasis switch { DutyBasis.Hot => qh, DutyBasis.Cold => qc, _ => 0.5 * (qh + qc) };
         var (thi, tho, tci, tco) = TerminalTemperatures(m);
-        double lmtd, f;
-        if (memo is null || !memo.Driving.TryGet(thi, tho, tci, tco, out lmtd, out f))
-        {
-            (lmtd, f) = DrivingForce(thi, tho, tci, tco);
-            memo?.Driving.Remember(thi, tho, tci, tco, lmtd, f);
-        }
+        var (lmtd, f) = DrivingForce(thi, tho, tci, tco);
         if (double.IsNaN(lmtd)) return double.NaN;
         var u = q / (_x.Area * f * lmtd);
         if (!(u > 0)) return double.NaN;
         var tube = _x.Hot.Side == ExchangerSide.Tube ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var shell = _x.Hot.Side == ExchangerSide.Shell ? m[Measurement.HotFlow] : m[Measurement.ColdFlow];
         var (tubeBulk, shellBulk) = BulkTemperatures(m);
-        var uc = memo is null
-            ? clean.CleanU(tube, shell, tubeBulk, shellBulk)
-            : memo.Clean.CleanU(clean, tube, shell, tubeBulk, shellBulk);
-        return 1 / u - 1 / uc;
+        return 1 / u - 1 / clean.CleanU(tube, shell, tubeBulk, shellBulk);
     }
 
     /// <summary>LMTD and F (capped at 1; 1 with a phase change) of the terminal temperatures, NaN when undefined.</summary>
@@ -274,10 +266,10 @@ public sealed partial class SampleEvaluator
     /// <summary>First-order (Taylor series) standard uncertainty of Rf from the sensor accuracies, σ² = Σ (∂Rf/∂xᵢ·σᵢ)², in the
     /// manner of ASME PTC 19.1 (GUM 5.1.2). Sensor errors are taken as independent. The sensitivities are
     /// <see cref="FoulingResistanceSensitivities"/>; NaN where they are undefined.</summary>
-    /// <param name="memo">One per worker, reused sample after sample (cleared here), or null for a fresh one.</param>
+    /// <param name="memo">One per worker, reused sample after sample, or null for a fresh one.</param>
     public double FoulingResistanceSigma(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
-        memo = memo?.Cleared() ?? new DutyMemo();
+        memo ??= new DutyMemo();
         var (sigma, _, sensitivity) = memo.Workspace;
         SigmasInto(m, sigma);
         if (!FoulingResistanceSensitivities(m, pHot, pCold, clean, sigma, sensitivity, memo)) return double.NaN;
@@ -291,7 +283,7 @@ public sealed partial class SampleEvaluator
     /// reference the chain-rule sensitivities are tested against.</summary>
     public double FoulingResistanceSigmaByProbes(double[] m, double pHot, double pCold, ICleanUModel clean, DutyMemo? memo = null)
     {
-        memo = memo?.Cleared() ?? new DutyMemo();
+        memo ??= new DutyMemo();
         var (sigma, probe, sensitivity) = memo.Workspace;
         SigmasInto(m, sigma);
         return FirstOrderPropagation.StandardUncertainty(new RfAt(this, pHot, pCold, clean, memo), m, sigma, probe, sensitivity);
@@ -309,53 +301,17 @@ public sealed partial class SampleEvaluator
 public readonly record struct CleanValues(double UClean, double FoulingResistance, double Cleanliness, double DutyClean,
     double DutyRated, double LostDuty, double HotOutletClean, double ColdOutletClean);
 
-/// <summary>The last enthalpy change of each side of one sample (fixed pressures), with its validity verdict, and the
-/// last LMTD and F (a flow probe moves no temperature).</summary>
+/// <summary>The last enthalpy change of each side (fixed pressures), with its validity verdict, and the propagation's
+/// buffers: one per worker, reused sample after sample (it matches exact arguments, so a value is never stale).</summary>
 public sealed class DutyMemo
 {
     internal SideMemo Hot { get; } = new();
     internal SideMemo Cold { get; } = new();
-    private DrivingMemo? _driving;
-    private CleanUMemo? _clean;
     private (double[], double[], double[])? _workspace;
-    internal DrivingMemo Driving => _driving ??= new();
-    internal CleanUMemo Clean => _clean ??= new();
 
     /// <summary>Buffers for the propagation: the sensor sigmas, the probe point and the sensitivities.</summary>
     internal (double[] Sigma, double[] Probe, double[] Sensitivity) Workspace =>
         _workspace ??= (new double[Measurement.Count], new double[Measurement.Count], new double[Measurement.Count]);
-
-    /// <summary>Forgets the sample's own terminal temperatures and side terms, so that the next sample's are kept as
-    /// its own (the memos match exact arguments, so a value is never wrong, only found less often).</summary>
-    public DutyMemo Cleared()
-    {
-        _driving?.Clear();
-        _clean?.Clear();
-        return this;
-    }
-
-    /// <summary>The first terminal temperatures seen (the sample's own, which every flow probe keeps) and the last.</summary>
-    internal sealed class DrivingMemo
-    {
-        private readonly double[] _first = [double.NaN, 0, 0, 0, 0, 0], _last = [double.NaN, 0, 0, 0, 0, 0];
-
-        public bool TryGet(double thi, double tho, double tci, double tco, out double lmtd, out double f) =>
-            Match(_first, thi, tho, tci, tco, out lmtd, out f) || Match(_last, thi, tho, tci, tco, out lmtd, out f);
-
-        public void Clear() => (_first[0], _last[0]) = (double.NaN, double.NaN);
-
-        public void Remember(double thi, double tho, double tci, double tco, double lmtd, double f)
-        {
-            var slot = double.IsNaN(_first[0]) ? _first : _last;
-            (slot[0], slot[1], slot[2], slot[3], slot[4], slot[5]) = (thi, tho, tci, tco, lmtd, f);
-        }
-
-        private static bool Match(double[] s, double thi, double tho, double tci, double tco, out double lmtd, out double f)
-        {
-            (lmtd, f) = (s[4], s[5]);
-            return thi.Equals(s[0]) && tho.Equals(s[1]) && tci.Equals(s[2]) && tco.Equals(s[3]);
-        }
-    }
 
     internal sealed class SideMemo
     {

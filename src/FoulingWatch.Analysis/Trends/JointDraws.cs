@@ -107,10 +107,8 @@ public sealed class JointDraws
         return (double[])fit.Parameters.Clone();
     }
 
-    /// <summary>Quantile q of the true Rf over the draws at t days since the cycle start.</summary>
-    public double ValueQuantile(double t, double q) => ValueQuantiles(t, q, q).Low;
-
-    /// <summary>Two quantiles (low, high) of the true Rf over the draws at t, from one sort (a band's two edges).</summary>
+    /// <summary>Two quantiles (low, high) of the true Rf over the draws at t days since the cycle start (a band's two
+    /// edges).</summary>
     /// <remarks>The two order statistics by selection (the values <see cref="Quantile"/> takes from the sorted draws); a
     /// sort where a draw is NaN.</remarks>
     public (double Low, double High) ValueQuantiles(double t, double low, double high)
